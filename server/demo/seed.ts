@@ -1,0 +1,53 @@
+import { randomUUID } from 'node:crypto'
+import type { Role } from '#shared/schemas/user'
+import { hashPassword } from '../auth/passwords.ts'
+import { MembershipModel, TeamModel, UserModel } from '../models/index.ts'
+
+export const DEMO_PASSWORD = 'bedside-demo'
+
+const TEAMS = ['Ward 7 North — Cardiology', 'Acute Medical Unit', 'Medical ICU'] as const
+type TeamName = (typeof TEAMS)[number]
+
+interface DemoAccount {
+  email: string
+  displayName: string
+  roles: Role[]
+  teams: TeamName[]
+}
+
+// Invented staff of the invented Saltmarsh Teaching Hospital.
+const ACCOUNTS: DemoAccount[] = [
+  { email: 'admin@saltmarsh.test', displayName: 'Morgan Reyes', roles: ['admin'], teams: [] },
+  { email: 'educator@saltmarsh.test', displayName: 'Dr Hana Okafor', roles: ['educator'], teams: [] },
+  { email: 'attending@saltmarsh.test', displayName: 'Dr Tomas Lindqvist', roles: ['attending'], teams: ['Ward 7 North — Cardiology'] },
+  { email: 'attending2@saltmarsh.test', displayName: 'Dr Priya Raman', roles: ['attending'], teams: ['Acute Medical Unit', 'Medical ICU'] },
+  { email: 'resident@saltmarsh.test', displayName: 'Dr Sam Whitcombe', roles: ['resident'], teams: ['Ward 7 North — Cardiology'] },
+  { email: 'resident2@saltmarsh.test', displayName: 'Dr Aiko Brennan', roles: ['resident'], teams: ['Ward 7 North — Cardiology'] },
+  { email: 'resident3@saltmarsh.test', displayName: 'Dr Lewis Achebe', roles: ['resident'], teams: ['Acute Medical Unit'] },
+  { email: 'resident4@saltmarsh.test', displayName: 'Dr Ines Carvalho', roles: ['resident'], teams: ['Acute Medical Unit'] },
+  { email: 'resident5@saltmarsh.test', displayName: 'Dr Noah Fitzgerald', roles: ['resident'], teams: ['Medical ICU'] },
+  { email: 'resident6@saltmarsh.test', displayName: 'Dr Mei Tanaka', roles: ['resident'], teams: ['Medical ICU'] },
+]
+
+/** Creates the demo hospital's teams and accounts that are missing; running it twice changes nothing. */
+export async function seedDemo(): Promise<{ created: number }> {
+  const teamIds = new Map<string, string>()
+  for (const name of TEAMS) {
+    const [team] = await TeamModel.findOrCreate({ where: { name }, defaults: { id: randomUUID(), name } })
+    teamIds.set(name, team.id)
+  }
+  let created = 0
+  for (const a of ACCOUNTS) {
+    if (await UserModel.findOne({ where: { email: a.email } })) continue
+    const user = await UserModel.create({
+      id: randomUUID(),
+      email: a.email,
+      displayName: a.displayName,
+      passwordHash: await hashPassword(DEMO_PASSWORD),
+      roles: JSON.stringify(a.roles),
+    })
+    await MembershipModel.bulkCreate(a.teams.map((t) => ({ userId: user.id, teamId: teamIds.get(t)! })))
+    created += 1
+  }
+  return { created }
+}

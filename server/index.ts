@@ -1,0 +1,70 @@
+import { randomBytes } from 'node:crypto'
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import type { AddressInfo } from 'node:net'
+import path from 'node:path'
+import { fileURLToPath } from 'node:url'
+import { pino } from 'pino'
+import { createApp } from './app.ts'
+import { loadConfig, type Config } from './config.ts'
+import { createMigrator } from './db/migrator.ts'
+import { openDatabase } from './db/sequelize.ts'
+import { seedDemo } from './demo/seed.ts'
+import { initModels } from './models/index.ts'
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..')
+
+function jwtSecret(config: Config): string {
+  if (config.JWT_SECRET) return config.JWT_SECRET
+  const file = path.join(config.DATA_DIR, 'jwt-secret')
+  if (!existsSync(file)) writeFileSync(file, randomBytes(48).toString('hex'), { mode: 0o600 })
+  return readFileSync(file, 'utf8').trim()
+}
+
+export interface RunningServer {
+  url: string
+  close(): Promise<void>
+}
+
+/** Opens the database, migrates, seeds in demo mode and listens; used by `npm start` and the browser tests. */
+export async function startServer(config: Config): Promise<RunningServer> {
+  const log = pino({ level: config.LOG_LEVEL, redact: ['password', '*.password', 'token', '*.token', 'patientCode'] })
+  mkdirSync(config.DATA_DIR, { recursive: true })
+  const sequelize = openDatabase(path.join(config.DATA_DIR, 'plumbline.sqlite'))
+  await sequelize.authenticate()
+  initModels(sequelize)
+  await createMigrator(sequelize).up()
+  if (config.DEMO) await seedDemo()
+  const app = createApp({
+    secret: jwtSecret(config),
+    log,
+    demo: config.DEMO,
+    cookieSecure: config.COOKIE_SECURE,
+    clientDir: path.join(root, 'dist'),
+  })
+  const server = app.listen(config.PORT, config.HOST)
+  await new Promise<void>((resolve, reject) => server.once('listening', resolve).once('error', reject))
+  const { port } = server.address() as AddressInfo
+  const url = `http://${config.HOST === '127.0.0.1' ? 'localhost' : config.HOST}:${port}`
+  return {
+    url,
+    close: async () => {
+      server.closeAllConnections()
+      await new Promise<void>((resolve) => server.close(() => resolve()))
+      await sequelize.close()
+    },
+  }
+}
+
+/** Entry point of `npm start` and `tsx server/index.ts`. */
+export async function main() {
+  const running = await startServer(loadConfig())
+  console.log(`Plumbline is running at ${running.url}`)
+  const stop = async () => {
+    await running.close()
+    process.exit(0)
+  }
+  process.once('SIGTERM', stop)
+  process.once('SIGINT', stop)
+}
+
+if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url)) await main()

@@ -1,0 +1,42 @@
+import type { NextFunction, Request, Response } from 'express'
+import { ZodError } from 'zod'
+import type { Logger } from 'pino'
+import { AppError } from '../errors.ts'
+
+function fieldsOf(error: ZodError): Record<string, string> {
+  const fields: Record<string, string> = {}
+  for (const issue of error.issues) {
+    const key = issue.path.join('.') || '_'
+    fields[key] ??= issue.message
+  }
+  return fields
+}
+
+interface HttpLikeError {
+  status?: number
+  type?: string
+}
+
+export function errorHandler(log: Logger) {
+  return (err: unknown, _req: Request, res: Response, _next: NextFunction) => {
+    if (err instanceof ZodError) {
+      res.status(400).json({ error: { code: 'invalid-input', message: 'Some fields need attention', fields: fieldsOf(err) } })
+      return
+    }
+    if (err instanceof AppError) {
+      res.status(err.status).json({ error: { code: err.code, message: err.message, fields: err.fields } })
+      return
+    }
+    const http = err as HttpLikeError
+    if (http.type === 'entity.too.large') {
+      res.status(413).json({ error: { code: 'too-large', message: 'The request is too large' } })
+      return
+    }
+    if (http.type === 'entity.parse.failed') {
+      res.status(400).json({ error: { code: 'invalid-json', message: 'The request body is not valid JSON' } })
+      return
+    }
+    log.error({ err }, 'unhandled error')
+    res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on the server' } })
+  }
+}

@@ -1,0 +1,111 @@
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize'
+
+export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAttributes<UserModel>> {
+  declare id: string
+  declare email: string
+  declare displayName: string
+  declare passwordHash: string | null
+  declare roles: string
+  declare active: CreationOptional<boolean>
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+}
+
+export class TeamModel extends Model<InferAttributes<TeamModel>, InferCreationAttributes<TeamModel>> {
+  declare id: string
+  declare name: string
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+}
+
+export class MembershipModel extends Model<InferAttributes<MembershipModel>, InferCreationAttributes<MembershipModel>> {
+  declare userId: string
+  declare teamId: string
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+}
+
+export class RefreshSessionModel extends Model<
+  InferAttributes<RefreshSessionModel>,
+  InferCreationAttributes<RefreshSessionModel>
+> {
+  declare id: string
+  declare userId: string
+  declare familyId: string
+  declare tokenHash: string
+  declare expiresAt: Date
+  declare revokedAt: Date | null
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+}
+
+export class AuditEventModel extends Model<InferAttributes<AuditEventModel>, InferCreationAttributes<AuditEventModel>> {
+  declare id: CreationOptional<number>
+  declare at: Date
+  declare actorId: string | null
+  declare action: string
+  declare entityType: string | null
+  declare entityId: string | null
+  declare changes: string | null
+}
+
+export type Models = ReturnType<typeof initModels>
+
+/** Binds the model classes to a connection; the tables themselves come from migrations. */
+export function initModels(sequelize: Sequelize) {
+  const id = { type: DataTypes.STRING(36), primaryKey: true }
+  const stamps = { createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE }
+  UserModel.init(
+    {
+      id,
+      email: DataTypes.STRING,
+      displayName: DataTypes.STRING,
+      passwordHash: DataTypes.STRING,
+      roles: DataTypes.TEXT,
+      active: DataTypes.BOOLEAN,
+      ...stamps,
+    },
+    { sequelize, tableName: 'users' },
+  )
+  TeamModel.init({ id, name: DataTypes.STRING, ...stamps }, { sequelize, tableName: 'teams' })
+  MembershipModel.init(
+    {
+      userId: { type: DataTypes.STRING(36), primaryKey: true },
+      teamId: { type: DataTypes.STRING(36), primaryKey: true },
+      ...stamps,
+    },
+    { sequelize, tableName: 'team_memberships' },
+  )
+  RefreshSessionModel.init(
+    {
+      id,
+      userId: DataTypes.STRING,
+      familyId: DataTypes.STRING,
+      tokenHash: DataTypes.STRING,
+      expiresAt: DataTypes.DATE,
+      revokedAt: DataTypes.DATE,
+      ...stamps,
+    },
+    { sequelize, tableName: 'refresh_sessions' },
+  )
+  AuditEventModel.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      at: DataTypes.DATE,
+      actorId: DataTypes.STRING,
+      action: DataTypes.STRING,
+      entityType: DataTypes.STRING,
+      entityId: DataTypes.STRING,
+      changes: DataTypes.TEXT,
+    },
+    { sequelize, tableName: 'audit_events', timestamps: false },
+  )
+  return { UserModel, TeamModel, MembershipModel, RefreshSessionModel, AuditEventModel }
+}

@@ -1,0 +1,36 @@
+import ky, { isHTTPError } from 'ky'
+import { ApiErrorSchema } from '#shared/schemas/user'
+import { getToken } from './token'
+
+export const api = ky.create({
+  prefixUrl: '/api/',
+  timeout: 10_000,
+  credentials: 'same-origin',
+  hooks: {
+    beforeRequest: [
+      (request) => {
+        const token = getToken()
+        if (token) request.headers.set('Authorization', `Bearer ${token}`)
+      },
+    ],
+  },
+})
+
+export interface ReadableError {
+  status: number | null
+  code: string
+  message: string
+  fields: Record<string, string>
+}
+
+/** Turns any thrown value from `api` into a displayable error. */
+export async function readApiError(e: unknown): Promise<ReadableError> {
+  if (!isHTTPError(e)) {
+    return { status: null, code: 'network', message: 'Cannot reach the server. Check your connection and try again.', fields: {} }
+  }
+  const status = e.response.status
+  const body = ApiErrorSchema.safeParse(await e.response.json().catch(() => null))
+  if (!body.success) return { status, code: `http-${status}`, message: `The server answered ${status}.`, fields: {} }
+  const { code, message, fields = {} } = body.data.error
+  return { status, code, message, fields }
+}

@@ -1,0 +1,44 @@
+import { mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import path from 'node:path'
+import { chromium, type Browser, type Page } from 'playwright-core'
+import { loadConfig } from '../../server/config.ts'
+import { startServer, type RunningServer } from '../../server/index.ts'
+
+export const DEMO_PASSWORD = 'bedside-demo'
+
+/** The real server (built client, SQLite file in a temporary folder, demo data) on a free port. */
+export async function startDemoServer(): Promise<RunningServer & { dataDir: string }> {
+  const dataDir = mkdtempSync(path.join(tmpdir(), 'plumbline-e2e-'))
+  const running = await startServer(loadConfig({ PORT: '0', DATA_DIR: dataDir, DEMO: 'true', LOG_LEVEL: 'silent' }))
+  return {
+    ...running,
+    dataDir,
+    close: async () => {
+      await running.close()
+      rmSync(dataDir, { recursive: true, force: true })
+    },
+  }
+}
+
+export function launchChromium(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--no-first-run',
+    ],
+  })
+}
+
+export async function signInAs(page: Page, baseUrl: string, email: string) {
+  await page.goto(`${baseUrl}/sign-in`)
+  await page.getByTestId('sign-in-email').locator('input').fill(email)
+  await page.getByTestId('sign-in-password').locator('input').fill(DEMO_PASSWORD)
+  await page.getByTestId('sign-in-submit').click()
+}

@@ -1,0 +1,47 @@
+import { randomUUID } from 'node:crypto'
+import bcrypt from 'bcryptjs'
+import { pino } from 'pino'
+import request from 'supertest'
+import type { Role } from '#shared/schemas/user'
+import { createApp, type AppDeps } from '../../server/app.ts'
+import { BCRYPT_COST } from '../../server/auth/passwords.ts'
+import { createMigrator } from '../../server/db/migrator.ts'
+import { openDatabase } from '../../server/db/sequelize.ts'
+import { initModels, MembershipModel, TeamModel, UserModel } from '../../server/models/index.ts'
+
+export const TEST_SECRET = 'test-secret-'.padEnd(64, 'x')
+export const PASSWORD = 'correct-horse-battery'
+// Hashed once per file: each bcrypt hash at the production cost takes a few hundred milliseconds.
+let passwordHash: string | undefined
+
+/** A fresh in-memory database, migrated, and the app built on it. */
+export async function makeTestApp(overrides: Partial<AppDeps> = {}) {
+  const sequelize = openDatabase(':memory:')
+  initModels(sequelize)
+  await createMigrator(sequelize).up()
+  const app = createApp({ secret: TEST_SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false, ...overrides })
+  return { app, sequelize }
+}
+
+export async function makeTeam(name = `Team ${randomUUID().slice(0, 8)}`) {
+  return TeamModel.create({ id: randomUUID(), name })
+}
+
+export async function makeUser(opts: { roles?: Role[]; teamIds?: string[]; email?: string; active?: boolean } = {}) {
+  passwordHash ??= await bcrypt.hash(PASSWORD, BCRYPT_COST)
+  const user = await UserModel.create({
+    id: randomUUID(),
+    email: opts.email ?? `${randomUUID().slice(0, 8)}@example.test`,
+    displayName: 'Test Person',
+    passwordHash,
+    roles: JSON.stringify(opts.roles ?? ['resident']),
+    active: opts.active ?? true,
+  })
+  await MembershipModel.bulkCreate((opts.teamIds ?? []).map((teamId) => ({ userId: user.id, teamId })))
+  return user
+}
+
+export async function signIn(app: Parameters<typeof request>[0], email: string, password = PASSWORD) {
+  const res = await request(app).post('/api/auth/login').send({ email, password })
+  return { res, token: res.body.token as string, cookie: res.headers['set-cookie'] as unknown as string[] }
+}
