@@ -27,9 +27,9 @@ describe('signing in with the demo accounts in Chromium', () => {
     await signInAs(page, server.url, 'resident@saltmarsh.test')
 
     await expect.poll(() => page.getByTestId('nav-teams').isVisible()).toBe(true)
-    expect(await page.getByTestId('demo-ribbon').isVisible()).toBe(true)
+    await expect.poll(() => page.getByTestId('demo-ribbon').isVisible()).toBe(true)
+    await expect.poll(() => page.getByRole('heading', { name: /Dr Sam Whitcombe/ }).isVisible()).toBe(true)
     expect(await page.getByTestId('nav-accounts').count()).toBe(0)
-    expect(await page.getByRole('heading', { name: /Dr Sam Whitcombe/ }).isVisible()).toBe(true)
 
     await page.getByTestId('user-menu').click()
     await page.getByTestId('sign-out').click()
