@@ -2,11 +2,56 @@ import { fileURLToPath, URL } from 'node:url'
 import { defineConfig } from 'vitest/config'
 import vue from '@vitejs/plugin-vue'
 import vuetify from 'vite-plugin-vuetify'
+import { VitePWA } from 'vite-plugin-pwa'
 
 const apiTarget = `http://localhost:${process.env.PORT ?? 3000}`
 
 export default defineConfig({
-  plugins: [vue(), vuetify({ autoImport: true })],
+  plugins: [
+    vue(),
+    vuetify({ autoImport: true }),
+    // https://vite-pwa-org.netlify.app/guide/
+    VitePWA({
+      strategies: 'generateSW',
+      // A new version waits for the user's click: never reload under a half-filled exam.
+      registerType: 'prompt',
+      // Registered from src/plugins/pwa.ts once the router is ready.
+      injectRegister: false,
+      manifest: {
+        id: '/',
+        name: 'Plumbline — bedside JVP exam',
+        short_name: 'Plumbline',
+        description: 'Record the bedside jugular venous pressure exam, with or without a network.',
+        lang: 'en',
+        start_url: '/',
+        scope: '/',
+        display: 'standalone',
+        categories: ['medical'],
+        theme_color: '#1F5C63',
+        background_color: '#F4F1EC',
+        icons: [
+          { src: 'pwa-192x192.png', sizes: '192x192', type: 'image/png', purpose: 'any' },
+          { src: 'pwa-512x512.png', sizes: '512x512', type: 'image/png', purpose: 'any' },
+          { src: 'maskable-icon-512x512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+        ],
+      },
+      includeAssets: ['favicon.svg'],
+      workbox: {
+        // Every route chunk and stylesheet, and only the woff2 copies of Roboto and the icon font:
+        // browsers that run this service worker all read woff2, so the eot/ttf/woff copies would be dead weight.
+        globPatterns: ['**/*.{js,css,html,woff2}'],
+        globIgnores: ['**/*.{eot,ttf,woff}'],
+        // @mdi/font's CSS asks for `…woff2?v=7.4.47`; without ignoring `v` that request misses the precache offline.
+        ignoreURLParametersMatching: [/^utm_/, /^fbclid$/, /^v$/],
+        navigateFallback: 'index.html',
+        navigateFallbackDenylist: [/^\/api(?:\/|$)/],
+        // No runtimeCaching: API answers carry patient data and must never sit in a cache.
+        // Claiming clients on first install lets lazy route chunks come from the cache during the very first visit.
+        clientsClaim: true,
+        cleanupOutdatedCaches: true,
+      },
+    }),
+  ],
   resolve: {
     alias: { '@': fileURLToPath(new URL('./src', import.meta.url)) },
   },
@@ -15,6 +60,8 @@ export default defineConfig({
   },
   build: {
     chunkSizeWarningLimit: 600,
+    // dist/.vite/manifest.json maps entries to chunks for `npm run bench:bundle`
+    manifest: true,
   },
   test: {
     projects: [

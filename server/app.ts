@@ -4,10 +4,18 @@ import express, { type Express, type NextFunction, type Request, type Response }
 import cookieParser from 'cookie-parser'
 import helmet from 'helmet'
 import type { Logger } from 'pino'
+import { agreementRouter } from './agreement/agreement.routes.ts'
+import { auditTrailRouter } from './audit-trail/audit-trail.routes.ts'
 import { authRouter } from './auth/auth.routes.ts'
 import { AppError } from './errors.ts'
-import { requireAuth } from './middleware/auth.ts'
+import { examsRouter } from './exams/exams.routes.ts'
+import type { FakeSmtp } from './mail/fake-smtp.ts'
+import { mailboxRouter } from './mail/mailbox.routes.ts'
+import type { Mailer } from './mail/mailer.ts'
+import { requireAuth, requireRole } from './middleware/auth.ts'
 import { errorHandler } from './middleware/error-handler.ts'
+import { supervisionRouter } from './supervision/supervision.routes.ts'
+import { syncRouter } from './sync/sync.routes.ts'
 import { usersRouter } from './users/users.routes.ts'
 
 export interface AppDeps {
@@ -19,6 +27,12 @@ export interface AppDeps {
   clientDir?: string
   loginAttempts?: number
   jsonLimit?: string
+  /** Sends workflow e-mails; API tests may leave it out. */
+  mailer?: Mailer
+  /** The demo's fake SMTP server; when present, admins read what it caught at /api/mailbox. */
+  mailbox?: Pick<FakeSmtp, 'messages'>
+  /** Base of links in e-mails; the request's own origin when omitted. */
+  baseUrl?: string
 }
 
 function requestLog(log: Logger) {
@@ -57,7 +71,11 @@ export function createApp(deps: AppDeps): Express {
     '/api/auth',
     authRouter({ secret: deps.secret, cookieSecure: deps.cookieSecure ?? true, loginAttempts: deps.loginAttempts ?? 10 }),
   )
-  app.use('/api', requireAuth(deps.secret), usersRouter())
+  if (deps.mailbox) app.use('/api/mailbox', requireAuth(deps.secret), requireRole('admin'), mailboxRouter(deps.mailbox))
+  app.use('/api/agreement', requireAuth(deps.secret), agreementRouter({ secret: deps.secret }))
+  app.use('/api/sync', requireAuth(deps.secret), syncRouter({ secret: deps.secret }))
+  const exams = { secret: deps.secret, log: deps.log, mailer: deps.mailer, baseUrl: deps.baseUrl }
+  app.use('/api', requireAuth(deps.secret), usersRouter(), examsRouter(exams), supervisionRouter(exams), auditTrailRouter(exams))
   app.use('/api', () => {
     throw new AppError('not-found', 404, 'No such API route')
   })

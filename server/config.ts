@@ -14,6 +14,10 @@ export const ConfigSchema = z.object({
   SMTP_HOST: z.string().default('127.0.0.1'),
   SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(2525),
   SMTP_FROM: z.string().default('Plumbline <no-reply@plumbline.test>'),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASS: z.string().optional(),
+  /** Where users reach the app; links in e-mails are built on it. */
+  PUBLIC_URL: z.url().optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 })
 export type Config = z.infer<typeof ConfigSchema>

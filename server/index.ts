@@ -3,12 +3,15 @@ import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import type { AddressInfo } from 'node:net'
 import path from 'node:path'
 import { fileURLToPath } from 'node:url'
-import { pino } from 'pino'
+import { setTimeout as delay } from 'node:timers/promises'
 import { createApp } from './app.ts'
 import { loadConfig, type Config } from './config.ts'
 import { createMigrator } from './db/migrator.ts'
 import { openDatabase } from './db/sequelize.ts'
 import { seedDemo } from './demo/seed.ts'
+import { createLogger } from './logger.ts'
+import { startFakeSmtp } from './mail/fake-smtp.ts'
+import { createMailer } from './mail/mailer.ts'
 import { initModels } from './models/index.ts'
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..')
@@ -27,19 +30,31 @@ export interface RunningServer {
 
 /** Opens the database, migrates, seeds in demo mode and listens; used by `npm start` and the browser tests. */
 export async function startServer(config: Config): Promise<RunningServer> {
-  const log = pino({ level: config.LOG_LEVEL, redact: ['password', '*.password', 'token', '*.token', 'patientCode'] })
+  const log = createLogger(config.LOG_LEVEL)
   mkdirSync(config.DATA_DIR, { recursive: true })
   const sequelize = openDatabase(path.join(config.DATA_DIR, 'plumbline.sqlite'))
   await sequelize.authenticate()
   initModels(sequelize)
   await createMigrator(sequelize).up()
   if (config.DEMO) await seedDemo()
+  // Demo: a local SMTP catcher on an ephemeral loopback port, so two instances (or e2e runs) never clash.
+  const fakeSmtp = config.DEMO ? await startFakeSmtp({ host: '127.0.0.1', port: 0 }) : undefined
+  const mailer = createMailer({
+    host: fakeSmtp ? '127.0.0.1' : config.SMTP_HOST,
+    port: fakeSmtp?.port ?? config.SMTP_PORT,
+    from: config.SMTP_FROM,
+    log,
+    auth: config.SMTP_USER ? { user: config.SMTP_USER, pass: config.SMTP_PASS ?? '' } : undefined,
+  })
   const app = createApp({
     secret: jwtSecret(config),
     log,
     demo: config.DEMO,
     cookieSecure: config.COOKIE_SECURE,
     clientDir: path.join(root, 'dist'),
+    mailer,
+    mailbox: fakeSmtp,
+    baseUrl: config.PUBLIC_URL,
   })
   const server = app.listen(config.PORT, config.HOST)
   await new Promise<void>((resolve, reject) => server.once('listening', resolve).once('error', reject))
@@ -50,6 +65,9 @@ export async function startServer(config: Config): Promise<RunningServer> {
     close: async () => {
       server.closeAllConnections()
       await new Promise<void>((resolve) => server.close(() => resolve()))
+      await Promise.race([mailer.idle(), delay(5_000, undefined, { ref: false })])
+      mailer.close()
+      await fakeSmtp?.close()
       await sequelize.close()
     },
   }

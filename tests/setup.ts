@@ -7,3 +7,6 @@ class ResizeObserverStub {
   disconnect() {}
 }
 globalThis.ResizeObserver ??= ResizeObserverStub as unknown as typeof ResizeObserver
+
+// Vuetify's overlays (snackbar, dialog) read the global visualViewport, which jsdom lacks; null is its "absent" case.
+Object.assign(globalThis, { visualViewport: globalThis.visualViewport ?? null })

@@ -1,6 +1,10 @@
 import { Umzug, SequelizeStorage } from 'umzug'
 import type { QueryInterface, Sequelize } from 'sequelize'
 import * as foundation from './migrations/2026.12.02T06.00.00.foundation.ts'
+import * as exams from './migrations/2026.12.02T10.00.00.exams.ts'
+import * as supervision from './migrations/2026.12.04T09.00.00.supervision.ts'
+import * as agreementPairs from './migrations/2026.12.05T09.00.00.agreement-pairs.ts'
+import * as syncCursor from './migrations/2026.12.06T09.00.00.sync-cursor.ts'
 
 interface MigrationModule {
   up(q: QueryInterface): Promise<void>
@@ -8,7 +12,13 @@ interface MigrationModule {
 }
 
 // Listed in code, in order, so the migrations run the same under tsx, vitest and any bundler.
-const migrations: [string, MigrationModule][] = [['2026.12.02T06.00.00.foundation', foundation]]
+const migrations: [string, MigrationModule][] = [
+  ['2026.12.02T06.00.00.foundation', foundation],
+  ['2026.12.02T10.00.00.exams', exams],
+  ['2026.12.04T09.00.00.supervision', supervision],
+  ['2026.12.05T09.00.00.agreement-pairs', agreementPairs],
+  ['2026.12.06T09.00.00.sync-cursor', syncCursor],
+]
 
 export function createMigrator(sequelize: Sequelize) {
   return new Umzug<QueryInterface>({

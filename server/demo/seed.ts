@@ -2,6 +2,8 @@ import { randomUUID } from 'node:crypto'
 import type { Role } from '#shared/schemas/user'
 import { hashPassword } from '../auth/passwords.ts'
 import { MembershipModel, TeamModel, UserModel } from '../models/index.ts'
+import { seedDemoExams } from './demo-exams.ts'
+import { seedDemoPairs } from './demo-pairs.ts'
 
 export const DEMO_PASSWORD = 'bedside-demo'
 
@@ -29,25 +31,29 @@ const ACCOUNTS: DemoAccount[] = [
   { email: 'resident6@saltmarsh.test', displayName: 'Dr Mei Tanaka', roles: ['resident'], teams: ['Medical ICU'] },
 ]
 
-/** Creates the demo hospital's teams and accounts that are missing; running it twice changes nothing. */
-export async function seedDemo(): Promise<{ created: number }> {
+/** Creates the demo hospital's teams, accounts and exams that are missing; running it twice changes nothing. */
+export async function seedDemo(): Promise<{ created: number; exams: number }> {
   const teamIds = new Map<string, string>()
   for (const name of TEAMS) {
     const [team] = await TeamModel.findOrCreate({ where: { name }, defaults: { id: randomUUID(), name } })
     teamIds.set(name, team.id)
   }
   let created = 0
+  // One hash for every account: the password is public anyway, and each bcrypt hash costs a few hundred milliseconds.
+  let passwordHash: string | undefined
   for (const a of ACCOUNTS) {
     if (await UserModel.findOne({ where: { email: a.email } })) continue
     const user = await UserModel.create({
       id: randomUUID(),
       email: a.email,
       displayName: a.displayName,
-      passwordHash: await hashPassword(DEMO_PASSWORD),
+      passwordHash: (passwordHash ??= await hashPassword(DEMO_PASSWORD)),
       roles: JSON.stringify(a.roles),
     })
     await MembershipModel.bulkCreate(a.teams.map((t) => ({ userId: user.id, teamId: teamIds.get(t)! })))
     created += 1
   }
-  return { created }
+  const exams = await seedDemoExams(teamIds)
+  await seedDemoPairs(teamIds)
+  return { created, exams }
 }

@@ -24,7 +24,7 @@ export function errorHandler(log: Logger) {
       return
     }
     if (err instanceof AppError) {
-      res.status(err.status).json({ error: { code: err.code, message: err.message, fields: err.fields } })
+      res.status(err.status).json({ ...err.extra, error: { code: err.code, message: err.message, fields: err.fields } })
       return
     }
     const http = err as HttpLikeError

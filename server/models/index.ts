@@ -6,6 +6,11 @@ import {
   type InferCreationAttributes,
   type Sequelize,
 } from 'sequelize'
+import { ExamModel, initExamModel } from './exam.ts'
+import { SignatureModel, initSignatureModel } from './signature.ts'
+
+export { ExamModel }
+export { SignatureModel }
 
 export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAttributes<UserModel>> {
   declare id: string
@@ -107,5 +112,7 @@ export function initModels(sequelize: Sequelize) {
     },
     { sequelize, tableName: 'audit_events', timestamps: false },
   )
-  return { UserModel, TeamModel, MembershipModel, RefreshSessionModel, AuditEventModel }
+  initExamModel(sequelize)
+  initSignatureModel(sequelize)
+  return { UserModel, TeamModel, MembershipModel, RefreshSessionModel, AuditEventModel, ExamModel, SignatureModel }
 }

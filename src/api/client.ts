@@ -2,7 +2,7 @@ import ky, { isHTTPError } from 'ky'
 import { ApiErrorSchema } from '#shared/schemas/user'
 import { getToken } from './token'
 
-export const api = ky.create({
+export let api = ky.create({
   prefixUrl: '/api/',
   timeout: 10_000,
   credentials: 'same-origin',
@@ -15,6 +15,11 @@ export const api = ky.create({
     ],
   },
 })
+
+/** Points the client at another server, e.g. a test server on a loopback port, optionally with another timeout. */
+export function configureApiBase(prefixUrl: string, options: { timeout?: number } = {}) {
+  api = api.extend({ prefixUrl, ...options })
+}
 
 export interface ReadableError {
   status: number | null

@@ -2,7 +2,9 @@ import type { App } from 'vue'
 import { createPinia } from 'pinia'
 import router from '@/router'
 import vuetify from './vuetify'
+import { installPwa } from './pwa'
 
 export function registerPlugins(app: App) {
   app.use(createPinia()).use(router).use(vuetify)
+  installPwa(app, router)
 }

@@ -14,8 +14,17 @@ export const CLINICAL_ROLES: Role[] = ['resident', 'attending', 'educator']
 export const routes: RouteRecordRaw[] = [
   { path: '/sign-in', name: 'sign-in', component: () => import('@/views/SignInView.vue'), meta: { public: true, title: 'Sign in' } },
   { path: '/', name: 'home', component: () => import('@/views/HomeView.vue'), meta: { title: 'Home' } },
+  { path: '/record/:draftId?', name: 'record', component: () => import('@/views/BedsideView.vue'), meta: { roles: ['resident', 'attending'], title: 'Record exam' } },
+  { path: '/exams', name: 'exams', component: () => import('@/views/ExamLogView.vue'), meta: { roles: CLINICAL_ROLES, title: 'Exam log' } },
+  { path: '/exams/:id', name: 'exam-detail', component: () => import('@/views/ExamDetailView.vue'), meta: { roles: CLINICAL_ROLES, title: 'Exam' } },
+  { path: '/signoff', name: 'signoff-queue', component: () => import('@/views/SignoffQueueView.vue'), meta: { roles: ['attending'], title: 'Sign-off queue' } },
+  { path: '/signoff/:id', name: 'exam-review', component: () => import('@/views/ExamReviewView.vue'), meta: { roles: ['attending'], title: 'Review exam' } },
   { path: '/teams', name: 'teams', component: () => import('@/views/TeamsView.vue'), meta: { roles: CLINICAL_ROLES, title: 'Teams' } },
   { path: '/admin/accounts', name: 'accounts', component: () => import('@/views/AccountsView.vue'), meta: { roles: ['admin'], title: 'Accounts' } },
+  { path: '/admin/audit', name: 'audit-trail', component: () => import('@/views/AuditTrailView.vue'), meta: { roles: ['admin'], title: 'Audit trail' } },
+  { path: '/admin/mailbox', name: 'mailbox', component: () => import('@/views/MailboxView.vue'), meta: { roles: ['admin'], title: 'Mailbox' } },
+  { path: '/device', name: 'device', component: () => import('@/views/AboutView.vue'), meta: { title: 'This device' } },
+  { path: '/sync/conflicts', name: 'sync-conflicts', component: () => import('@/views/SyncConflictView.vue'), meta: { roles: ['resident', 'attending'], title: 'Needs your attention' } },
   { path: '/not-allowed', name: 'not-allowed', component: () => import('@/views/NotAllowedView.vue'), meta: { title: 'Not allowed' } },
   { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('@/views/NotFoundView.vue'), meta: { public: true, title: 'Not found' } },
 ]

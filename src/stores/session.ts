@@ -4,6 +4,13 @@ import { isHTTPError } from 'ky'
 import type { LoginInput, Role, User } from '#shared/schemas/user'
 import * as auth from '@/api/auth'
 import { setToken } from '@/api/token'
+import { loadProfile, saveProfile } from '@/db/meta'
+import { unsyncedWorkOnDevice } from '@/db/outbox'
+import { wipeLocalData } from '@/db/wipe'
+
+export type RenewOutcome = 'renewed' | 'refused' | 'unreachable'
+/** What signing out would destroy: queued changes and unfinished exams on this device. */
+export type UnsyncedWork = Awaited<ReturnType<typeof unsyncedWorkOnDevice>>
 
 export const useSessionStore = defineStore('session', () => {
   const user = ref<User | null>(null)
@@ -20,6 +27,7 @@ export const useSessionStore = defineStore('session', () => {
     token.value = session?.token ?? null
     user.value = session?.user ?? null
     setToken(token.value)
+    if (session) void saveProfile(session.user).catch(() => undefined)
   }
 
   async function loadDemoFlag() {
@@ -30,9 +38,11 @@ export const useSessionStore = defineStore('session', () => {
     try {
       applySession(await auth.refresh())
     } catch (e) {
-      // 401 just means nobody is signed in; anything else also leaves us signed out
-      if (!isHTTPError(e) || e.response.status !== 401) console.warn('Session restore failed', e)
+      // 401 just means nobody is signed in; another answer also leaves us signed out
+      if (isHTTPError(e) && e.response.status !== 401) console.warn('Session restore failed', e)
       applySession(null)
+      // No answer at all (offline start): carry on with the profile kept on this device; sync gets a token later.
+      if (!isHTTPError(e)) user.value = await loadProfile().catch(() => null)
     }
   }
 
@@ -50,13 +60,30 @@ export const useSessionStore = defineStore('session', () => {
     applySession(await auth.login(input))
   }
 
-  /** Signs out locally even if the server cannot be reached. */
-  async function signOut() {
+  /** A fresh access token from the refresh cookie, taken only if it is still the same account's (sync after a 401). */
+  async function renew(userId: string): Promise<RenewOutcome> {
     try {
-      await auth.logout()
-    } finally {
-      applySession(null)
+      const session = await auth.refresh()
+      if (session.user.id !== userId) return 'refused'
+      applySession(session)
+      return 'renewed'
+    } catch (e) {
+      return isHTTPError(e) ? 'refused' : 'unreachable'
     }
+  }
+
+  /**
+   * Signs out and wipes what this device holds (drafts, exam copies, outbox), so no patient code stays on a shared
+   * phone. With work not yet on the server it does nothing and answers that work, unless the user accepted the loss.
+   */
+  async function signOut(options: { discardUnsynced?: boolean } = {}): Promise<UnsyncedWork | null> {
+    const work = await unsyncedWorkOnDevice()
+    if (!options.discardUnsynced && work.changes + work.drafts > 0) return work
+    // Signs out locally even if the server cannot be reached.
+    await auth.logout().catch(() => undefined)
+    applySession(null)
+    await wipeLocalData()
+    return null
   }
 
   /** True when the user holds at least one of the given roles. */
@@ -64,5 +91,5 @@ export const useSessionStore = defineStore('session', () => {
     return roles.some((role) => user.value?.roles.includes(role) ?? false)
   }
 
-  return { user, token, demo, restored, signedIn, restore, signIn, signOut, hasRole }
+  return { user, token, demo, restored, signedIn, restore, signIn, renew, signOut, hasRole }
 })

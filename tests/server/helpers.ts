@@ -5,6 +5,7 @@ import request from 'supertest'
 import type { Role } from '#shared/schemas/user'
 import { createApp, type AppDeps } from '../../server/app.ts'
 import { BCRYPT_COST } from '../../server/auth/passwords.ts'
+import { signAccessToken } from '../../server/auth/tokens.ts'
 import { createMigrator } from '../../server/db/migrator.ts'
 import { openDatabase } from '../../server/db/sequelize.ts'
 import { initModels, MembershipModel, TeamModel, UserModel } from '../../server/models/index.ts'
@@ -27,13 +28,23 @@ export async function makeTeam(name = `Team ${randomUUID().slice(0, 8)}`) {
   return TeamModel.create({ id: randomUUID(), name })
 }
 
-export async function makeUser(opts: { roles?: Role[]; teamIds?: string[]; email?: string; active?: boolean } = {}) {
-  passwordHash ??= await bcrypt.hash(PASSWORD, BCRYPT_COST)
+export interface UserOptions {
+  roles?: Role[]
+  teamIds?: string[]
+  email?: string
+  displayName?: string
+  active?: boolean
+  /** False leaves the account without a password, sparing a bcrypt hash where no test signs in. */
+  withPassword?: boolean
+}
+
+export async function makeUser(opts: UserOptions = {}) {
+  if (opts.withPassword !== false) passwordHash ??= await bcrypt.hash(PASSWORD, BCRYPT_COST)
   const user = await UserModel.create({
     id: randomUUID(),
     email: opts.email ?? `${randomUUID().slice(0, 8)}@example.test`,
-    displayName: 'Test Person',
-    passwordHash,
+    displayName: opts.displayName ?? 'Test Person',
+    passwordHash: opts.withPassword === false ? null : passwordHash!,
     roles: JSON.stringify(opts.roles ?? ['resident']),
     active: opts.active ?? true,
   })
@@ -44,4 +55,11 @@ export async function makeUser(opts: { roles?: Role[]; teamIds?: string[]; email
 export async function signIn(app: Parameters<typeof request>[0], email: string, password = PASSWORD) {
   const res = await request(app).post('/api/auth/login').send({ email, password })
   return { res, token: res.body.token as string, cookie: res.headers['set-cookie'] as unknown as string[] }
+}
+
+/** A user and the `Authorization` header of a session of theirs, minted directly: sign-in itself is tested in auth.api.test.ts. */
+export async function makeCaller(opts: UserOptions = {}) {
+  const user = await makeUser({ withPassword: false, ...opts })
+  const token = signAccessToken(TEST_SECRET, { sub: user.id, roles: opts.roles ?? ['resident'] })
+  return { user, auth: `Bearer ${token}` }
 }

@@ -1,4 +1,4 @@
-import { beforeEach, describe, expect, it } from 'vitest'
+import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { defineComponent, h } from 'vue'
 import { mount } from '@vue/test-utils'
 import { createPinia, setActivePinia } from 'pinia'
@@ -9,8 +9,11 @@ import TheNavDrawer from '@/components/TheNavDrawer.vue'
 import { navItemsFor } from '@/router/nav'
 import { routes } from '@/router/routes'
 import { useSessionStore } from '@/stores/session'
+import * as supervision from '@/api/supervision'
 import { makeUser } from '../factories/user'
 import type { Role } from '#shared/schemas/user'
+
+vi.mock('@/api/supervision')
 
 function mountDrawerFor(roles: Role[]) {
   const session = useSessionStore()
@@ -25,16 +28,30 @@ describe('navigation by role', () => {
     setActivePinia(createPinia())
   })
 
-  it('a resident sees home and teams but not accounts', () => {
+  it('a resident sees home, recording, the exam log and teams but not accounts', () => {
     const names = navItemsFor(['resident']).map((item) => item.routeName)
 
-    expect(names).toEqual(['home', 'teams'])
+    expect(names).toEqual(['home', 'record', 'exams', 'teams', 'device'])
   })
 
-  it('an admin sees accounts but not teams', () => {
+  it('an educator reads the exam log but is not offered recording', () => {
+    const names = navItemsFor(['educator']).map((item) => item.routeName)
+
+    expect(names).toEqual(['home', 'exams', 'teams', 'device'])
+  })
+
+  it('an admin sees accounts, the audit trail and the mailbox but not teams', () => {
     const names = navItemsFor(['admin']).map((item) => item.routeName)
 
-    expect(names).toEqual(['home', 'accounts'])
+    expect(names).toEqual(['home', 'accounts', 'audit-trail', 'mailbox', 'device'])
+  })
+
+  it('an attending is offered the sign-off queue; a resident is not', () => {
+    const attending = navItemsFor(['attending']).map((item) => item.routeName)
+    const resident = navItemsFor(['resident']).map((item) => item.routeName)
+
+    expect(attending).toContain('signoff-queue')
+    expect(resident).not.toContain('signoff-queue')
   })
 
   it('every nav item points at a named route whose roles match', () => {
@@ -59,5 +76,23 @@ describe('navigation by role', () => {
 
     expect(wrapper.find('[data-testid="nav-accounts"]').exists()).toBe(true)
     expect(wrapper.find('[data-testid="nav-teams"]').exists()).toBe(false)
+  })
+
+  it('the sign-off queue item shows how many exams wait for the attending', async () => {
+    vi.mocked(supervision.fetchSignoffCount).mockResolvedValue(4)
+
+    const wrapper = mountDrawerFor(['attending'])
+
+    await vi.waitFor(() => expect(wrapper.find('[data-testid="signoff-count"]').exists()).toBe(true))
+    expect(wrapper.find('[data-testid="nav-signoff-queue"]').text()).toContain('4')
+  })
+
+  it('the drawer does not ask a resident for a sign-off count', async () => {
+    vi.mocked(supervision.fetchSignoffCount).mockClear()
+
+    mountDrawerFor(['resident'])
+    await new Promise((resolve) => setTimeout(resolve, 50))
+
+    expect(supervision.fetchSignoffCount).not.toHaveBeenCalled()
   })
 })

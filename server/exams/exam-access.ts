@@ -1,0 +1,55 @@
+import { createHmac } from 'node:crypto'
+import { Op, type WhereOptions } from 'sequelize'
+import type { User } from '#shared/schemas/user'
+import { MembershipModel, type ExamModel } from '../models/index.ts'
+
+type Where = WhereOptions<ExamModel>
+
+/** Who sees which exams (§2), as SQL for lists and as a predicate for unmasking single rows. */
+export interface ExamScope {
+  /** Readable with the real patient code: one's own exams; for attendings, their teams' non-drafts. Null: none. */
+  clinical: Where | null
+  /** Readable only with the code masked: every non-draft of the program, for educators. Null: none. */
+  program: Where | null
+  showsCode(row: ExamModel): boolean
+}
+
+const notDraft: Where = { status: { [Op.ne]: 'draft' } }
+
+export async function scopeOf(user: User): Promise<ExamScope> {
+  const roles = new Set(user.roles)
+  const recordsExams = roles.has('resident') || roles.has('attending')
+  const teamIds = new Set(user.teams.map((t) => t.id))
+  const colleagues = new Set<string>()
+  if (roles.has('attending')) {
+    const memberships = await MembershipModel.findAll({ where: { teamId: { [Op.in]: [...teamIds] } } })
+    for (const m of memberships) colleagues.add(m.userId)
+  }
+  const clinical: Where[] = []
+  if (recordsExams) clinical.push({ examinerId: user.id })
+  // Exams filed to their teams, and those their teams' members filed elsewhere (§2: "the residents in their teams").
+  if (roles.has('attending'))
+    clinical.push({ ...notDraft, [Op.or]: [{ teamId: { [Op.in]: [...teamIds] } }, { examinerId: { [Op.in]: [...colleagues] } }] })
+  return {
+    clinical: clinical.length ? { [Op.or]: clinical } : null,
+    program: roles.has('educator') ? notDraft : null,
+    showsCode: (row) =>
+      (recordsExams && row.examinerId === user.id) ||
+      (roles.has('attending') && row.status !== 'draft' && (teamIds.has(row.teamId) || colleagues.has(row.examinerId))),
+  }
+}
+
+/** The rows a scope may read at all; null when it may read none (admins). */
+export function readable(scope: ExamScope): Where | null {
+  const parts = [scope.clinical, scope.program].filter((w): w is Where => w !== null)
+  return parts.length ? { [Op.or]: parts } : null
+}
+
+/**
+ * A stable pseudonym for a patient code, keyed by a sub-key of the server secret: an educator can see that two
+ * exams concern one patient without learning who. It changes if the secret is rotated.
+ */
+export function patientCodeMask(secret: string): (code: string) => string {
+  const key = createHmac('sha256', secret).update('plumbline/patient-code-mask').digest()
+  return (code) => `P-${createHmac('sha256', key).update(code).digest('hex').slice(0, 8)}`
+}

@@ -1,0 +1,61 @@
+import type { Estimate, ExamInput } from '#shared/schemas/exam'
+import type { ExamModel } from '../models/index.ts'
+
+/** Column values for a validated record and the estimate the server computed from it. */
+export function columnsOf(input: ExamInput, estimate: Estimate) {
+  return {
+    patientCode: input.patientCode,
+    teamId: input.teamId,
+    examinedAt: new Date(input.examinedAt),
+    inclinationDeg: input.inclinationDeg,
+    inclinationSource: input.inclinationSource,
+    vein: input.vein,
+    columnTop: input.columnTop,
+    heightMethod: input.heightMethod,
+    heightCm: input.heightCm ?? null,
+    alongNeckCm: input.alongNeckCm ?? null,
+    readingPrecision: input.readingPrecision,
+    offsetModel: input.offsetModel,
+    venousSigns: JSON.stringify(input.venousSigns),
+    rhythm: input.rhythm,
+    waveform: JSON.stringify(input.waveform),
+    respiratory: input.respiratory,
+    abdominojugular: JSON.stringify(input.abdominojugular),
+    notes: input.notes,
+    estimate: JSON.stringify(estimate),
+    verticalHeightCm: estimate.heightCm,
+    cvpCmH2O: estimate.cvpCmH2O,
+  }
+}
+
+/** The stored record in the shape a client sends, unvalidated: the base a PATCH merges into. */
+export function storedInput(row: ExamModel): Record<string, unknown> {
+  return {
+    id: row.id,
+    patientCode: row.patientCode,
+    teamId: row.teamId,
+    examinedAt: row.examinedAt.toISOString(),
+    notes: row.notes,
+    inclinationDeg: row.inclinationDeg,
+    inclinationSource: row.inclinationSource,
+    vein: row.vein,
+    columnTop: row.columnTop,
+    heightMethod: row.heightMethod,
+    heightCm: row.heightCm,
+    alongNeckCm: row.alongNeckCm,
+    readingPrecision: row.readingPrecision,
+    offsetModel: row.offsetModel,
+    venousSigns: JSON.parse(row.venousSigns),
+    rhythm: row.rhythm,
+    waveform: JSON.parse(row.waveform),
+    respiratory: row.respiratory,
+    abdominojugular: JSON.parse(row.abdominojugular),
+  }
+}
+
+/** JSON with every object's keys sorted, so equal content always serialises to equal text. */
+export function sortedJson(value: unknown): string {
+  return JSON.stringify(value, (_key, v: unknown) =>
+    v && typeof v === 'object' && !Array.isArray(v) ? Object.fromEntries(Object.entries(v).sort(([a], [b]) => (a < b ? -1 : 1))) : v,
+  )
+}

@@ -1,0 +1,64 @@
+import { Op } from 'sequelize'
+import { ExamInputSchema, ExamSchema, type Exam, type ExamInput } from '#shared/schemas/exam'
+import { ExamModel, TeamModel, UserModel } from '../models/index.ts'
+import { signaturesOf } from '../supervision/signatures.ts'
+import { maskCodes } from './code-masking.ts'
+import { sortedJson, storedInput } from './exam-columns.ts'
+
+export { columnsOf, storedInput } from './exam-columns.ts'
+
+/** The return comment as the reader may see it: a masked reader gets the pseudonym wherever the code was typed. */
+function commentFor(row: ExamModel, code: string): string | null {
+  if (!row.returnComment || code === row.patientCode) return row.returnComment ?? null
+  return maskCodes(row.returnComment, [row.patientCode], () => code)
+}
+
+/** Rows as the API's exam shape, with names and signatures joined and the patient code as the reader may see it. */
+export async function present(rows: ExamModel[], codeOf: (row: ExamModel) => string): Promise<Exam[]> {
+  if (!rows.length) return []
+  const [users, teams, signatures] = await Promise.all([
+    UserModel.findAll({ where: { id: { [Op.in]: [...new Set(rows.map((r) => r.examinerId))] } } }),
+    TeamModel.findAll({ where: { id: { [Op.in]: [...new Set(rows.map((r) => r.teamId))] } } }),
+    signaturesOf(rows),
+  ])
+  const userNames = new Map(users.map((u) => [u.id, u.displayName]))
+  const teamNames = new Map(teams.map((t) => [t.id, t.name]))
+  return rows.map((row) =>
+    ExamSchema.parse({
+      ...storedInput(row),
+      patientCode: codeOf(row),
+      examinerId: row.examinerId,
+      examinerName: userNames.get(row.examinerId) ?? '',
+      teamName: teamNames.get(row.teamId) ?? '',
+      status: row.status,
+      version: row.version,
+      estimate: JSON.parse(row.estimate),
+      createdAt: row.createdAt.toISOString(),
+      updatedAt: row.updatedAt.toISOString(),
+      submittedAt: row.submittedAt?.toISOString() ?? null,
+      signatures: signatures.get(row.id) ?? [],
+      returnComment: commentFor(row, codeOf(row)),
+    }),
+  )
+}
+
+/** The author's own view of one row. */
+export async function presentOwn(row: ExamModel): Promise<Exam> {
+  const [exam] = await present([row], (r) => r.patientCode)
+  return exam!
+}
+
+function canonical(input: ExamInput): string {
+  return sortedJson({
+    ...input,
+    examinedAt: new Date(input.examinedAt).toISOString(),
+    heightCm: input.heightCm ?? null,
+    alongNeckCm: input.alongNeckCm ?? null,
+  })
+}
+
+/** Whether a stored row holds exactly this record, however the client wrote the time or ordered the keys. */
+export function sameRecord(row: ExamModel, input: ExamInput): boolean {
+  const stored = ExamInputSchema.safeParse(storedInput(row))
+  return stored.success && canonical(stored.data) === canonical(input)
+}

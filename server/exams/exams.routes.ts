@@ -1,0 +1,40 @@
+import { Router, type Request, type Response } from 'express'
+import { z } from 'zod'
+import { computeEstimate } from '#shared/domain/estimate'
+import { ExamFindingsSchema, ExamInputSchema, ExamListQuerySchema, ExamPatchSchema } from '#shared/schemas/exam'
+import { currentUser, requireRole } from '../middleware/auth.ts'
+import { requestNotifier, type SupervisionRouterOptions } from '../supervision/supervision.routes.ts'
+import { patientCodeMask } from './exam-access.ts'
+import { getExam, listExams, type Viewer } from './exam-queries.ts'
+import { createExam, submitExam, updateExam } from './exams.service.ts'
+
+const IdParamsSchema = z.object({ id: z.string() })
+const SubmitSchema = z.object({ baseVersion: z.number('Send the version this change is based on').int().min(1).optional() })
+
+/** `secret` keys the pseudonyms that replace patient codes for readers who may not see them; `mailer` asks for countersignature. */
+export function examsRouter(options: SupervisionRouterOptions): Router {
+  const router = Router()
+  const mask = patientCodeMask(options.secret)
+  const notifier = requestNotifier(options)
+  const viewer = (res: Response): Viewer => ({ user: currentUser(res), mask })
+  const idOf = (req: Request) => IdParamsSchema.parse(req.params).id
+  const readers = requireRole('resident', 'attending', 'educator')
+  const authors = requireRole('resident', 'attending')
+
+  router.post('/estimate', readers, (req, res) => res.json(computeEstimate(ExamFindingsSchema.parse(req.body))))
+  router.get('/exams', readers, async (req, res) => res.json(await listExams(viewer(res), ExamListQuerySchema.parse(req.query))))
+  router.get('/exams/:id', async (req, res) => res.json(await getExam(viewer(res), idOf(req))))
+  router.post('/exams', authors, async (req, res) => {
+    const { exam, created } = await createExam(currentUser(res), ExamInputSchema.parse(req.body))
+    res.status(created ? 201 : 200).json(exam)
+  })
+  router.patch('/exams/:id', authors, async (req, res) =>
+    res.json(await updateExam(currentUser(res), idOf(req), ExamPatchSchema.parse(req.body))),
+  )
+  router.post('/exams/:id/submit', authors, async (req, res) => {
+    const exam = await submitExam(currentUser(res), idOf(req), SubmitSchema.parse(req.body ?? {}).baseVersion)
+    await notifier(req).submitted(exam)
+    res.json(exam)
+  })
+  return router
+}

@@ -1,0 +1,72 @@
+import { computeEstimate } from '#shared/domain/estimate'
+import { ExamInputSchema, type Exam, type ExamInput, type ExamPatch } from '#shared/schemas/exam'
+import type { User } from '#shared/schemas/user'
+import { audit } from '../audit.ts'
+import { AppError } from '../errors.ts'
+import { ExamModel } from '../models/index.ts'
+import { changesBetween, snapshotOf } from './exam-changes.ts'
+import { columnsOf, presentOwn, sameRecord, storedInput } from './exam-record.ts'
+import { authoredRow, checkBaseVersion, conflict, inTransaction, saveChange } from './exam-writes.ts'
+
+const FUTURE_TOLERANCE_MS = 5 * 60 * 1000
+const EDITABLE = new Set(['draft', 'returned'])
+
+/** Rules the schema cannot know: the author's own teams and the server's clock; checked on new or changed values. */
+function checkAuthorFields(author: User, input: ExamInput, before: ExamModel | null): void {
+  const fields: Record<string, string> = {}
+  if (input.teamId !== before?.teamId && !author.teams.some((t) => t.id === input.teamId))
+    fields.teamId = 'Choose one of your own teams'
+  const examinedAt = new Date(input.examinedAt).getTime()
+  if (examinedAt !== before?.examinedAt.getTime() && examinedAt > Date.now() + FUTURE_TOLERANCE_MS)
+    fields.examinedAt = 'The time of the exam cannot be in the future'
+  if (Object.keys(fields).length) throw new AppError('invalid-input', 400, 'Some fields need attention', fields)
+}
+
+/** A new draft by the signed-in author. The same id sent again by its author with the same content is an offline retry. */
+export async function createExam(author: User, input: ExamInput): Promise<{ exam: Exam; created: boolean }> {
+  return inTransaction(async (transaction) => {
+    const existing = await ExamModel.findByPk(input.id, { transaction })
+    if (existing && existing.examinerId === author.id && sameRecord(existing, input))
+      return { exam: await presentOwn(existing), created: false }
+    if (existing) throw new AppError('id-taken', 409, 'Another exam already has this id')
+    checkAuthorFields(author, input, null)
+    const values = { id: input.id, examinerId: author.id, status: 'draft', version: 1, submittedAt: null }
+    const row = await ExamModel.create({ ...values, ...columnsOf(input, computeEstimate(input)) }, { transaction })
+    const changes = changesBetween(null, snapshotOf(row))
+    await audit({ actorId: author.id, action: 'exam-create', entityType: 'exam', entityId: row.id, changes }, { transaction })
+    return { exam: await presentOwn(row), created: true }
+  })
+}
+
+/** Drafts and returned exams can change; submitted and countersigned ones are locked. */
+async function checkEditable(row: ExamModel, baseVersion: number | undefined): Promise<void> {
+  if (!EDITABLE.has(row.status)) throw await conflict(row, 'exam-locked', `This exam is ${row.status} and can no longer be changed`)
+  await checkBaseVersion(row, baseVersion)
+}
+
+/** Merges a change into the author's draft and re-validates the whole record; a change that changes nothing keeps the version. */
+export async function updateExam(author: User, id: string, patch: ExamPatch): Promise<Exam> {
+  return inTransaction(async (transaction) => {
+    const row = await authoredRow(author, id, transaction)
+    await checkEditable(row, patch.baseVersion)
+    const { baseVersion: _base, ...change } = patch
+    const stored = storedInput(row)
+    const input = ExamInputSchema.parse({ ...stored, ...change, waveform: { ...(stored.waveform as object), ...change.waveform } })
+    checkAuthorFields(author, input, row)
+    const before = snapshotOf(row)
+    row.set(columnsOf(input, computeEstimate(input)))
+    if (!Object.keys(changesBetween(before, snapshotOf(row))).length) return row
+    return saveChange(author, row, 'exam-update', transaction, before)
+  }).then(presentOwn)
+}
+
+/** Sends a draft or returned exam for countersignature, stamped with the server's time. */
+export async function submitExam(author: User, id: string, baseVersion?: number): Promise<Exam> {
+  return inTransaction(async (transaction) => {
+    const row = await authoredRow(author, id, transaction)
+    await checkEditable(row, baseVersion)
+    const before = snapshotOf(row)
+    row.set({ status: 'submitted', submittedAt: new Date(), returnComment: null })
+    return saveChange(author, row, 'exam-submit', transaction, before)
+  }).then(presentOwn)
+}

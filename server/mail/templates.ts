@@ -1,0 +1,74 @@
+import { AID_NOTE, body, dateTimeText, examLink, examText, link, scrub, type ExamRef, type MailMessage, type TemplateContext } from './template-parts.ts'
+
+export { invitation, passwordReset } from './account-templates.ts'
+export type { ExamRef, TemplateContext } from './template-parts.ts'
+
+export const MEANING_TEXT = {
+  'reviewed-agree': 'reviewed, agrees with the findings',
+  'reviewed-re-examined': 'reviewed after re-examining the patient',
+} as const
+export type SignatureMeaning = keyof typeof MEANING_TEXT
+
+/** To the team's attendings, when a resident submits an exam. */
+export function countersignRequested(p: TemplateContext & { to: string[]; residentName: string; exam: ExamRef }): MailMessage {
+  return {
+    template: 'countersign-requested',
+    to: p.to,
+    subject: `Countersignature requested by ${p.residentName}`,
+    text: body(
+      `${p.residentName} asks you to review and countersign ${examText(p.exam, p.timeZone)}.`,
+      `Open it in Plumbline: ${examLink(p.baseUrl, p.exam)}`,
+      AID_NOTE,
+    ),
+  }
+}
+
+/** To the resident, when an attending returns their exam with a comment. */
+export function examReturned(p: TemplateContext & { to: string; attendingName: string; comment: string; exam: ExamRef }): MailMessage {
+  return {
+    template: 'exam-returned',
+    to: [p.to],
+    subject: `Exam returned by ${p.attendingName}`,
+    text: body(
+      `${p.attendingName} returned ${examText(p.exam, p.timeZone)} for changes, with this comment:`,
+      scrub(p.comment, p.exam.patientCode),
+      `Amend and resubmit it in Plumbline: ${examLink(p.baseUrl, p.exam)}`,
+      AID_NOTE,
+    ),
+  }
+}
+
+/** To the resident, when an attending countersigns their exam. */
+export function examCountersigned(
+  p: TemplateContext & { to: string; signerName: string; meaning: SignatureMeaning; signedAt: Date | string; exam: ExamRef },
+): MailMessage {
+  return {
+    template: 'exam-countersigned',
+    to: [p.to],
+    subject: `Exam countersigned by ${p.signerName}`,
+    text: body(
+      `${p.signerName} countersigned ${examText(p.exam, p.timeZone)}.`,
+      `Signed by ${p.signerName}, ${dateTimeText(p.signedAt, p.timeZone)}, meaning: ${MEANING_TEXT[p.meaning]}.`,
+      `See the signed record in Plumbline: ${examLink(p.baseUrl, p.exam)}`,
+      AID_NOTE,
+    ),
+  }
+}
+
+/** To each examiner named in a calibration round. */
+export function roundOpened(
+  p: TemplateContext & { to: string[]; educatorName: string; roundName: string; roundId: string; closesAt?: Date | string },
+): MailMessage {
+  const closes = p.closesAt ? ` It closes ${dateTimeText(p.closesAt, p.timeZone)}.` : ''
+  return {
+    template: 'round-opened',
+    to: p.to,
+    subject: `Calibration round open: ${p.roundName}`,
+    text: body(
+      `${p.educatorName} opened the calibration round "${p.roundName}" and named you as an examiner.${closes}`,
+      "Record your own reading of each patient; you will see the others' readings only once the round closes.",
+      `Open the round in Plumbline: ${link(p.baseUrl, `/rounds/${encodeURIComponent(p.roundId)}`)}`,
+      AID_NOTE,
+    ),
+  }
+}

@@ -1,0 +1,22 @@
+import type { Transaction } from 'sequelize'
+import type { User } from '#shared/schemas/user'
+import { AppError } from '../errors.ts'
+import { canRead, checkBaseVersion, conflict, examNotFound } from '../exams/exam-writes.ts'
+import { ExamModel } from '../models/index.ts'
+
+/** The exam a reviewer may countersign or return: only an attending of the exam's own team, never its author (§5). */
+export async function reviewedRow(reviewer: User, id: string, transaction?: Transaction): Promise<ExamModel> {
+  const row = await ExamModel.findByPk(id, { transaction })
+  if (!row || !(await canRead(reviewer, id, transaction))) throw examNotFound()
+  if (row.examinerId === reviewer.id) throw new AppError('own-exam', 403, 'Nobody countersigns or returns their own exam')
+  if (!reviewer.roles.includes('attending') || !reviewer.teams.some((t) => t.id === row.teamId))
+    throw new AppError('not-team-attending', 403, 'Only an attending of the exam’s team can countersign or return it')
+  return row
+}
+
+/** Only a submitted exam waits for review; anything else is an illegal transition. */
+export async function checkSubmitted(row: ExamModel, baseVersion: number | undefined): Promise<void> {
+  if (row.status !== 'submitted')
+    throw await conflict(row, 'not-submitted', `This exam is ${row.status}; only a submitted exam can be countersigned or returned`)
+  await checkBaseVersion(row, baseVersion)
+}

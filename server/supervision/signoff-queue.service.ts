@@ -1,0 +1,32 @@
+import { Op, type WhereOptions } from 'sequelize'
+import type { SignoffQueue, SignoffQueueQuery } from '#shared/schemas/signoff-queue'
+import type { User } from '#shared/schemas/user'
+import { present } from '../exams/exam-record.ts'
+import { ExamModel } from '../models/index.ts'
+
+/** What the attending may countersign: submitted exams filed to their teams, by anyone but themselves. */
+function waitingFor(attending: User): WhereOptions<ExamModel> {
+  return { status: 'submitted', teamId: { [Op.in]: attending.teams.map((t) => t.id) }, examinerId: { [Op.ne]: attending.id } }
+}
+
+/** The attending's sign-off queue, the longest-waiting first (§5). */
+export async function signoffQueue(attending: User, query: SignoffQueueQuery): Promise<SignoffQueue> {
+  const { rows, count } = await ExamModel.findAndCountAll({
+    where: waitingFor(attending),
+    order: [['submittedAt', 'ASC'], ['id', 'ASC']],
+    limit: query.pageSize,
+    offset: (query.page - 1) * query.pageSize,
+  })
+  // Team attendings see the real codes of their teams' submitted exams (exam-access.ts).
+  const exams = await present(rows, (r) => r.patientCode)
+  const now = Date.now()
+  const items = exams.map((exam, i) => ({
+    exam,
+    waitingSeconds: Math.max(0, Math.floor((now - (rows[i]!.submittedAt?.getTime() ?? now)) / 1000)),
+  }))
+  return { items, total: count, page: query.page, pageSize: query.pageSize }
+}
+
+export async function signoffCount(attending: User): Promise<{ count: number }> {
+  return { count: await ExamModel.count({ where: waitingFor(attending) }) }
+}

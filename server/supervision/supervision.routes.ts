@@ -1,0 +1,60 @@
+import { Router, type Request, type Response } from 'express'
+import type { Logger } from 'pino'
+import { z } from 'zod'
+import { AmendInputSchema, CountersignInputSchema, ReturnInputSchema } from '#shared/schemas/signature'
+import { SignoffQueueQuerySchema } from '#shared/schemas/signoff-queue'
+import { patientCodeMask } from '../exams/exam-access.ts'
+import type { Mailer } from '../mail/mailer.ts'
+import { currentUser, requireRole } from '../middleware/auth.ts'
+import { countersignExam } from './countersign.service.ts'
+import { examHistory, examSignatures } from './exam-records.service.ts'
+import { createNotifier, type Notifier } from './notifications.ts'
+import { amendExam, returnExam } from './review.service.ts'
+import { signoffCount, signoffQueue } from './signoff-queue.service.ts'
+
+export interface SupervisionRouterOptions {
+  secret: string
+  log: Logger
+  mailer?: Mailer
+  /** Base of links in e-mails; the request's own origin when omitted. */
+  baseUrl?: string
+}
+
+/** A notifier whose links point at the configured base, or at the origin the request came to. */
+export function requestNotifier({ mailer, log, baseUrl }: Omit<SupervisionRouterOptions, 'secret'>) {
+  return (req: Request): Notifier => createNotifier({ mailer, log, baseUrl: baseUrl ?? `${req.protocol}://${req.get('host')}` })
+}
+
+const IdParamsSchema = z.object({ id: z.string() })
+
+/** Countersign, return, amend, signatures, history and the sign-off queue (§5). Mount it behind `requireAuth`. */
+export function supervisionRouter(options: SupervisionRouterOptions): Router {
+  const router = Router()
+  const mask = patientCodeMask(options.secret)
+  const notifier = requestNotifier(options)
+  const idOf = (req: Request) => IdParamsSchema.parse(req.params).id
+  const bodyOf = (req: Request): unknown => req.body ?? {}
+  const user = (res: Response) => currentUser(res)
+  const attendings = requireRole('attending')
+
+  router.post('/exams/:id/countersign', attendings, async (req, res) => {
+    const { exam, signature } = await countersignExam(user(res), idOf(req), CountersignInputSchema.parse(bodyOf(req)))
+    await notifier(req).countersigned(exam, signature)
+    res.json(exam)
+  })
+  router.post('/exams/:id/return', attendings, async (req, res) => {
+    const exam = await returnExam(user(res), idOf(req), ReturnInputSchema.parse(bodyOf(req)))
+    await notifier(req).returned(exam, user(res))
+    res.json(exam)
+  })
+  router.post('/exams/:id/amend', requireRole('resident', 'attending'), async (req, res) =>
+    res.json(await amendExam(user(res), idOf(req), AmendInputSchema.parse(bodyOf(req)))),
+  )
+  router.get('/exams/:id/signatures', async (req, res) => res.json(await examSignatures(user(res), idOf(req))))
+  router.get('/exams/:id/history', async (req, res) => res.json(await examHistory({ user: user(res), mask }, idOf(req))))
+  router.get('/signoff-queue', attendings, async (req, res) =>
+    res.json(await signoffQueue(user(res), SignoffQueueQuerySchema.parse(req.query))),
+  )
+  router.get('/signoff-queue/count', attendings, async (_req, res) => res.json(await signoffCount(user(res))))
+  return router
+}

@@ -1,0 +1,76 @@
+import type { Transaction } from 'sequelize'
+import { computeEstimate } from '#shared/domain/estimate'
+import { ExamInputSchema, type ExamInput } from '#shared/schemas/exam'
+import type { SyncChange, SyncResult } from '#shared/schemas/sync'
+import type { User } from '#shared/schemas/user'
+import { auditAll } from '../audit.ts'
+import { changesBetween, snapshotOf } from '../exams/exam-changes.ts'
+import { columnsOf, presentOwn, sameRecord } from '../exams/exam-record.ts'
+import { inTransaction } from '../exams/exam-writes.ts'
+import { ExamModel } from '../models/index.ts'
+import { applied, conflictWith, duplicate, fieldsOf, invalid, rejected } from './sync-results.ts'
+
+const FUTURE_TOLERANCE_MS = 5 * 60 * 1000
+
+/** createExam's rules beyond the schema (own team, server clock), for the batch path that cannot afford a call per row. */
+function authorFieldErrors(author: User, input: ExamInput): Record<string, string> | null {
+  const fields: Record<string, string> = {}
+  if (!author.teams.some((t) => t.id === input.teamId)) fields.teamId = 'Choose one of your own teams'
+  if (new Date(input.examinedAt).getTime() > Date.now() + FUTURE_TOLERANCE_MS) fields.examinedAt = 'The time of the exam cannot be in the future'
+  return Object.keys(fields).length ? fields : null
+}
+
+/** The answer for one new exam, or its validated input when it is to be stored. */
+async function decide(author: User, change: SyncChange, row: ExamModel | undefined): Promise<SyncResult | ExamInput> {
+  const id = change.exam.id
+  const parsed = ExamInputSchema.safeParse(change.exam)
+  if (!parsed.success) return rejected(id, invalid(fieldsOf(parsed.error)))
+  if (row && row.examinerId !== author.id) return rejected(id, { code: 'id-taken', message: 'Another exam already has this id' })
+  if (row) return sameRecord(row, parsed.data) ? duplicate(id, row.version) : conflictWith(await presentOwn(row))
+  const fields = authorFieldErrors(author, parsed.data)
+  return fields ? rejected(id, invalid(fields)) : parsed.data
+}
+
+/** Stores new drafts in one statement, with one audit event each, as createExam would. */
+async function insertAll(author: User, inputs: ExamInput[], transaction: Transaction): Promise<ExamModel[]> {
+  if (!inputs.length) return []
+  const values = inputs.map((input) => ({
+    ...columnsOf(input, computeEstimate(input)),
+    id: input.id,
+    examinerId: author.id,
+    status: 'draft',
+    version: 1,
+    submittedAt: null,
+  }))
+  const rows = await ExamModel.bulkCreate(values, { transaction })
+  const events = rows.map((row) => ({
+    actorId: author.id,
+    action: 'exam-create',
+    entityType: 'exam',
+    entityId: row.id,
+    changes: changesBetween(null, snapshotOf(row)),
+  }))
+  await auditAll(events, { transaction })
+  return rows
+}
+
+/**
+ * New exams of one push, in one transaction: a replay of content already stored is a duplicate (no second row, no
+ * second audit event), other content under a known id a conflict. Answers keyed by exam id.
+ */
+export async function applyCreates(author: User, changes: SyncChange[]): Promise<Map<string, SyncResult>> {
+  if (!changes.length) return new Map()
+  return inTransaction(async (transaction) => {
+    const rows = await ExamModel.findAll({ where: { id: changes.map((c) => c.exam.id) }, transaction })
+    const existing = new Map(rows.map((row) => [row.id, row]))
+    const results = new Map<string, SyncResult>()
+    const fresh: ExamInput[] = []
+    for (const change of changes) {
+      const outcome = await decide(author, change, existing.get(change.exam.id))
+      if ('result' in outcome) results.set(change.exam.id, outcome)
+      else fresh.push(outcome)
+    }
+    for (const row of await insertAll(author, fresh, transaction)) results.set(row.id, applied(row.id, row.version))
+    return results
+  })
+}

@@ -1,0 +1,106 @@
+import { z } from 'zod'
+import { LANDIS_KOCH_LABELS } from '../stats/landis-koch.ts'
+import { CvpCategorySchema, VeinSchema } from './exam.ts'
+
+const isoTime = z.iso.datetime({ offset: true, message: 'Use an ISO 8601 date-time' })
+const interval = z.tuple([z.number(), z.number()])
+
+/** Filters of the agreement views (§6): the time of a pair is the time of its earlier exam. */
+export const AgreementQuerySchema = z.object({
+  from: isoTime.optional(),
+  to: isoTime.optional(),
+  teamId: z.string().min(1).optional(),
+  examinerId: z.string().min(1).optional(),
+})
+export type AgreementQuery = z.infer<typeof AgreementQuerySchema>
+
+export const AgreementPairsQuerySchema = AgreementQuerySchema.extend({
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(1000).default(50),
+})
+export type AgreementPairsQuery = z.infer<typeof AgreementPairsQuerySchema>
+
+export const LandisKochLabelSchema = z.enum(LANDIS_KOCH_LABELS)
+
+/** Why a statistic is not shown, e.g. too few pairs or no spread: never a NaN. */
+export const UnavailableSchema = z.object({ unavailable: z.string() })
+const orUnavailable = <T extends z.ZodType>(schema: T) => z.union([schema, UnavailableSchema])
+
+export const AgreementRoleSchema = z.enum(['resident', 'attending'])
+
+/**
+ * How a pair's difference is taken: the resident's reading minus the attending's when exactly one examiner is an
+ * attending, otherwise the earlier reading minus the later one.
+ */
+export const PairOrderSchema = z.enum(['resident-minus-attending', 'earlier-minus-later'])
+export type PairOrder = z.infer<typeof PairOrderSchema>
+
+export const BlandAltmanSummarySchema = z.object({
+  bias: z.number(),
+  sd: z.number(),
+  loa: interval,
+  biasCi: interval,
+  loaCi: z.object({ lower: interval, upper: interval }),
+})
+
+/** One examiner's readings against their partners' (own − partner's), whichever side of the pair they were on. */
+export const ExaminerAgreementSchema = z.object({
+  examinerId: z.string(),
+  name: z.string(),
+  role: AgreementRoleSchema,
+  n: z.number().int(),
+  bias: z.number(),
+  /** Null below 2 pairs. */
+  sd: z.number().nullable(),
+  loa: interval.nullable(),
+})
+export type ExaminerAgreement = z.infer<typeof ExaminerAgreementSchema>
+
+/** Agreement on h above the sternal angle and on the derived categories (§6). */
+export const AgreementSummarySchema = z.object({
+  n: z.number().int(),
+  blandAltman: orUnavailable(BlandAltmanSummarySchema),
+  /** ICC(2,1) = ICC(A,1): rows are pairs, columns the two readings in the difference's order. */
+  icc: orUnavailable(z.object({ value: z.number(), ci: interval })),
+  kappaElevated: orUnavailable(z.object({ value: z.number(), label: LandisKochLabelSchema })),
+  /** Weighted over low/normal/high; the label is Landis & Koch's for the linear kappa. */
+  kappaCategory: orUnavailable(z.object({ linear: z.number(), quadratic: z.number(), label: LandisKochLabelSchema })),
+  byExaminer: z.array(ExaminerAgreementSchema),
+})
+export type AgreementSummary = z.infer<typeof AgreementSummarySchema>
+
+export const PairReadingSchema = z.object({
+  examId: z.string(),
+  examinerId: z.string(),
+  examinerName: z.string(),
+  role: AgreementRoleSchema,
+  teamId: z.string(),
+  examinedAt: z.string(),
+  heightCm: z.number(),
+  inclinationDeg: z.number(),
+  vein: VeinSchema,
+  category: CvpCategorySchema,
+  elevated: z.boolean(),
+})
+export type PairReading = z.infer<typeof PairReadingSchema>
+
+/** A pair as the viewer may see it: the patient code is masked unless the viewer may read it on the exams. */
+export const AgreementPairSchema = z.object({
+  patientCode: z.string(),
+  order: PairOrderSchema,
+  /** first.heightCm − second.heightCm. */
+  differenceCm: z.number(),
+  meanCm: z.number(),
+  minutesApart: z.number(),
+  first: PairReadingSchema,
+  second: PairReadingSchema,
+})
+export type AgreementPair = z.infer<typeof AgreementPairSchema>
+
+export const AgreementPairListSchema = z.object({
+  pairs: z.array(AgreementPairSchema),
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+})
+export type AgreementPairList = z.infer<typeof AgreementPairListSchema>

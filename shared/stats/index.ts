@@ -1,0 +1,7 @@
+export * from './result.ts'
+export * from './bland-altman.ts'
+export * from './icc.ts'
+export * from './cohen-kappa.ts'
+export * from './weighted-kappa.ts'
+export * from './fleiss-kappa.ts'
+export * from './landis-koch.ts'

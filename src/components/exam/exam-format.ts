@@ -1,0 +1,41 @@
+import type { Bound, CvpCategory, Estimate, OffsetModel } from '#shared/schemas/exam'
+
+type Band = [number | null, number | null] | null
+
+/** One decimal, with a true minus sign. */
+export function formatNumber(value: number, digits = 1): string {
+  return value.toFixed(digits).replace('-', '−')
+}
+
+/** A 95% band in words: both ends, or the one end a bound leaves open. */
+export function formatBand(band: Band, unit: string): string {
+  if (!band) return '—'
+  const [low, high] = band
+  if (low !== null && high !== null) return `${formatNumber(low)}–${formatNumber(high)} ${unit}`
+  if (low !== null) return `${formatNumber(low)} ${unit} or more`
+  if (high !== null) return `up to ${formatNumber(high)} ${unit}`
+  return '—'
+}
+
+export const BOUND_WORDING: Record<Bound, { prefix: string; explanation: string }> = {
+  point: { prefix: '', explanation: 'Column top seen: a point estimate.' },
+  lower: { prefix: 'At least', explanation: 'The column top was above the visible neck, so the CVP is at least this.' },
+  upper: { prefix: 'At most', explanation: 'No column was seen even lying flat, so the CVP is at most the offset at this angle.' },
+  none: { prefix: 'Not estimable', explanation: 'The column top could not be assessed, so there is no estimate.' },
+}
+
+export const CATEGORY_LABELS: Record<CvpCategory, string> = { low: 'Low CVP (< 5)', normal: 'Normal CVP (5–10)', high: 'High CVP (> 10)' }
+
+export const MODEL_LABELS: Record<OffsetModel, string> = {
+  'incline-adjusted': 'Incline-adjusted offset (Seth 2002)',
+  'fixed-5cm': 'Fixed 5 cm offset (classical rule)',
+}
+
+export function otherModel(model: OffsetModel): OffsetModel {
+  return model === 'incline-adjusted' ? 'fixed-5cm' : 'incline-adjusted'
+}
+
+/** Whether the estimate carries a number at all. */
+export function hasValue(estimate: Estimate): estimate is Estimate & { cvpCmH2O: number; cvpMmHg: number } {
+  return estimate.cvpCmH2O !== null && estimate.cvpMmHg !== null
+}

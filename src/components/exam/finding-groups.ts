@@ -1,0 +1,77 @@
+import { VEIN_LABEL, VENOUS_SIGN_LABEL, oneDp } from '#shared/domain/exam-note'
+import type { Exam } from '#shared/schemas/exam'
+import { formatDateTime } from '@/utils/format'
+
+export interface FindingGroup {
+  title: string
+  icon: string
+  rows: [label: string, value: string][]
+}
+
+const COLUMN_TOP: Record<Exam['columnTop'], string> = {
+  seen: 'Seen',
+  'above-neck': 'Above the visible neck, even upright',
+  'not-filled': 'Not filled, even lying flat',
+  'not-assessable': 'Could not be assessed',
+}
+
+const RESPIRATORY: Record<Exam['respiratory'], string> = {
+  'falls-on-inspiration': 'Falls on inspiration',
+  'rises-on-inspiration': 'Rises on inspiration (Kussmaul sign)',
+  'no-change': 'No change with breathing',
+  'not-assessed': 'Not assessed',
+}
+
+const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1).replace(/-/g, ' ')
+
+function positionRows(exam: Exam): FindingGroup['rows'] {
+  return [
+    ['Patient code', exam.patientCode],
+    ['Examined', `${formatDateTime(exam.examinedAt)} by ${exam.examinerName}`],
+    ['Team', exam.teamName],
+    ['Inclination', `${exam.inclinationDeg}° from horizontal (${exam.inclinationSource === 'sensor' ? 'measured by phone' : 'entered'})`],
+    ['Vein', capitalise(VEIN_LABEL[exam.vein])],
+  ]
+}
+
+function pulsationRows(exam: Exam): FindingGroup['rows'] {
+  const signs = exam.venousSigns.map((sign) => VENOUS_SIGN_LABEL[sign]).join(', ')
+  return [
+    ['Venous features', `${exam.venousSigns.length} of 6${signs ? `: ${signs}` : ''}`],
+    ['Rhythm', capitalise(exam.rhythm)],
+  ]
+}
+
+function heightRows(exam: Exam): FindingGroup['rows'] {
+  const h = exam.estimate.heightCm
+  const rows: FindingGroup['rows'] = [['Column top', COLUMN_TOP[exam.columnTop]]]
+  if (exam.columnTop !== 'seen' && exam.columnTop !== 'above-neck') return rows
+  rows.push(['Method', exam.heightMethod === 'vertical' ? 'Vertical rule at the sternal angle' : 'Along the neck'])
+  if (exam.heightMethod === 'along-neck') rows.push(['Along the neck', `${oneDp(exam.alongNeckCm ?? 0)} cm`])
+  rows.push(['Above the sternal angle', h === null ? '—' : `${oneDp(h)} cm`])
+  rows.push(['Reading', exam.readingPrecision === 'ruler' ? 'With a ruler' : 'By eye'])
+  return rows
+}
+
+function waveformRows(exam: Exam): FindingGroup['rows'] {
+  const aj = exam.abdominojugular
+  const rise = aj.riseCm === undefined ? 'rise not recorded' : `rise ${oneDp(aj.riseCm)} cm`
+  return [
+    ['a wave', capitalise(exam.waveform.aWave)],
+    ['v wave', capitalise(exam.waveform.vWave)],
+    ['y descent', capitalise(exam.waveform.yDescent)],
+    ['Respiration', RESPIRATORY[exam.respiratory]],
+    ['Abdominojugular test', aj.done ? `Done, ${rise}${aj.sustained ? ', sustained' : ', not sustained'}` : 'Not done'],
+  ]
+}
+
+/** The record's findings in the groups the detail page and its print-out show. */
+export function findingGroups(exam: Exam): FindingGroup[] {
+  return [
+    { title: 'Patient and position', icon: 'mdi-angle-acute', rows: positionRows(exam) },
+    { title: 'Pulsation', icon: 'mdi-heart-pulse', rows: pulsationRows(exam) },
+    { title: 'Height', icon: 'mdi-ruler', rows: heightRows(exam) },
+    { title: 'Waveform and manoeuvres', icon: 'mdi-waveform', rows: waveformRows(exam) },
+    { title: 'Notes', icon: 'mdi-note-text-outline', rows: [['Notes', exam.notes.trim() || 'None']] },
+  ]
+}

@@ -1,0 +1,31 @@
+import { UserSchema, type User } from '#shared/schemas/user'
+import { db } from './index'
+
+export const cursorKey = (userId: string) => `pull-cursor:${userId}`
+const lastSyncKey = (userId: string) => `last-sync:${userId}`
+const PROFILE_KEY = 'profile'
+
+/** Where the user's last pull stopped; 0 before the first one. */
+export async function loadCursor(userId: string): Promise<number> {
+  const row = await db.meta.get(cursorKey(userId))
+  return typeof row?.value === 'number' ? row.value : 0
+}
+
+export async function loadLastSync(userId: string): Promise<string | null> {
+  const row = await db.meta.get(lastSyncKey(userId))
+  return typeof row?.value === 'string' ? row.value : null
+}
+
+export async function saveLastSync(userId: string, at: string): Promise<void> {
+  await db.meta.put({ key: lastSyncKey(userId), value: at })
+}
+
+/** Keeps the signed-in profile, so the app can open and record offline after a reload. */
+export async function saveProfile(user: User): Promise<void> {
+  await db.meta.put({ key: PROFILE_KEY, value: JSON.parse(JSON.stringify(user)) })
+}
+
+export async function loadProfile(): Promise<User | null> {
+  const parsed = UserSchema.safeParse((await db.meta.get(PROFILE_KEY))?.value)
+  return parsed.success ? parsed.data : null
+}

@@ -1,0 +1,72 @@
+import { defineStore } from 'pinia'
+import { computed, ref } from 'vue'
+import { ExamListQuerySchema, type Exam, type ExamListQuery } from '#shared/schemas/exam'
+import { fetchExam, fetchExams, submitExam } from '@/api/exams'
+
+export type ExamFilters = Pick<ExamListQuery, 'status' | 'patientCode' | 'from' | 'to'>
+export type ExamPaging = Pick<ExamListQuery, 'page' | 'pageSize' | 'sort' | 'order'>
+
+const NO_FILTERS: ExamFilters = { status: undefined, patientCode: undefined, from: undefined, to: undefined }
+
+export const useExamsStore = defineStore('exams', () => {
+  /** The page of the log on screen. */
+  const exams = ref<Exam[]>([])
+  /** How many exams match the filters on the server. */
+  const total = ref(0)
+  /** Filters, sort and page of the log; kept while the user visits a record and comes back. */
+  const query = ref<ExamListQuery>(ExamListQuerySchema.parse({}))
+  const loading = ref(false)
+  /** The exam open on the detail page. */
+  const current = ref<Exam | null>(null)
+  const submitting = ref(false)
+  let latestRequest = 0
+
+  const hasFilters = computed(() => Object.keys(NO_FILTERS).some((key) => query.value[key as keyof ExamFilters]))
+
+  /** Loads the page of the log that `query` describes; an older answer never overwrites a newer one. */
+  async function loadList() {
+    const request = ++latestRequest
+    loading.value = true
+    try {
+      const list = await fetchExams({ ...query.value })
+      if (request !== latestRequest) return
+      exams.value = list.exams
+      total.value = list.total
+    } finally {
+      if (request === latestRequest) loading.value = false
+    }
+  }
+
+  /** Replaces the filters and goes back to the first page. */
+  function setFilters(filters: Partial<ExamFilters>) {
+    query.value = { ...query.value, ...NO_FILTERS, ...filters, page: 1 }
+  }
+
+  /** Applies the table's page and sort; returns whether anything changed, so callers reload only then. */
+  function setPaging(paging: ExamPaging): boolean {
+    const current = query.value
+    const changed = (Object.keys(paging) as (keyof ExamPaging)[]).some((key) => current[key] !== paging[key])
+    if (changed) query.value = { ...current, ...paging }
+    return changed
+  }
+
+  /** Loads one exam for the detail page. */
+  async function loadExam(id: string) {
+    if (current.value?.id !== id) current.value = null
+    current.value = await fetchExam(id)
+  }
+
+  /** Sends the open exam for countersignature and keeps the server's new copy. */
+  async function submit(id: string) {
+    submitting.value = true
+    try {
+      const exam = await submitExam(id)
+      current.value = exam
+      exams.value = exams.value.map((row) => (row.id === id ? exam : row))
+    } finally {
+      submitting.value = false
+    }
+  }
+
+  return { exams, total, query, loading, current, submitting, hasFilters, loadList, setFilters, setPaging, loadExam, submit }
+})

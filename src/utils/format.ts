@@ -1,0 +1,44 @@
+import { bandText, oneDp } from '#shared/domain/exam-note'
+import type { Estimate } from '#shared/schemas/exam'
+
+const dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' })
+
+/** An ISO time in the reader's own locale and zone. */
+export function formatDateTime(iso: string | null | undefined): string {
+  return iso ? dateTime.format(new Date(iso)) : '—'
+}
+
+/** A length or pressure to one decimal place, or a dash when there is none. */
+export function formatOneDp(value: number | null | undefined): string {
+  return value === null || value === undefined ? '—' : oneDp(value)
+}
+
+/** The 95% band in cmH₂O, with bound wording, or a dash. */
+export function formatBand(band: Estimate['bandCmH2O']): string {
+  return bandText(band) ?? '—'
+}
+
+/** The CVP as a table shows it: "13.7", "≥ 13.7", "≤ 9.7" or a dash. */
+export function formatCvp(estimate: Estimate): string {
+  if (estimate.cvpCmH2O === null) return '—'
+  const prefix = estimate.bound === 'lower' ? '≥ ' : estimate.bound === 'upper' ? '≤ ' : ''
+  return prefix + oneDp(estimate.cvpCmH2O)
+}
+
+/** Start of a local calendar day ("2026-03-14") as an ISO time, for the `from` filter. */
+export function dayStartIso(day: string): string {
+  return new Date(`${day}T00:00:00`).toISOString()
+}
+
+/** End of a local calendar day as an ISO time, for the `to` filter. */
+export function dayEndIso(day: string): string {
+  return new Date(`${day}T23:59:59.999`).toISOString()
+}
+
+/** The local calendar day ("2026-03-14") of an ISO time, for date inputs. */
+export function isoToDay(iso: string | undefined): string {
+  if (!iso) return ''
+  const date = new Date(iso)
+  const pad = (n: number) => String(n).padStart(2, '0')
+  return `${date.getFullYear()}-${pad(date.getMonth() + 1)}-${pad(date.getDate())}`
+}

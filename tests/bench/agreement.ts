@@ -1,0 +1,137 @@
+// Times GET /api/agreement/summary over 100,000 pairs in a temporary SQLite file. Run: npm run bench:agreement
+import { randomUUID } from 'node:crypto'
+import { mkdtempSync, rmSync } from 'node:fs'
+import type { AddressInfo } from 'node:net'
+import { tmpdir } from 'node:os'
+import path from 'node:path'
+import { pino } from 'pino'
+import type { Transaction } from 'sequelize'
+import { computeEstimate } from '#shared/domain/estimate'
+import { ExamInputSchema, type ExamInput } from '#shared/schemas/exam'
+import type { Role } from '#shared/schemas/user'
+import { createApp } from '../../server/app.ts'
+import { signAccessToken } from '../../server/auth/tokens.ts'
+import { createMigrator } from '../../server/db/migrator.ts'
+import { openDatabase } from '../../server/db/sequelize.ts'
+import { seededRandom } from '../../server/demo/demo-pairs.ts'
+import { columnsOf } from '../../server/exams/exam-record.ts'
+import { ExamModel, initModels, MembershipModel, TeamModel, UserModel } from '../../server/models/index.ts'
+
+const PAIRS = 100_000
+const VISITS_PER_PATIENT = 4
+const RUNS = 7
+const TARGET_MS = 500
+const CHUNK = 2_000
+const SECRET = 'bench-secret-'.padEnd(64, 'x')
+const random = seededRandom(6)
+const halfCm = (cm: number) => Math.round(cm * 2) / 2
+
+async function makeUser(role: Role, teamId: string | null, i: number) {
+  const account = { id: randomUUID(), email: `${role}${i}@bench.test`, displayName: `${role} ${i}`, passwordHash: null }
+  const user = await UserModel.create({ ...account, roles: JSON.stringify([role]) })
+  if (teamId) await MembershipModel.create({ userId: user.id, teamId })
+  return user
+}
+
+/** Three teams of ten residents and three attendings, and an educator. */
+async function makeStaff() {
+  const teams = await Promise.all([0, 1, 2].map((i) => TeamModel.create({ id: randomUUID(), name: `Team ${i}` })))
+  const residents = [], attendings = []
+  for (let i = 0; i < 30; i++) residents.push(await makeUser('resident', teams[i % 3]!.id, i))
+  for (let i = 0; i < 9; i++) attendings.push(await makeUser('attending', teams[i % 3]!.id, i))
+  return { teams, residents, attendings, educator: await makeUser('educator', null, 0) }
+}
+
+function examRow(base: ExamInput, examinerId: string, values: Partial<ExamInput>) {
+  const input: ExamInput = { ...base, ...values, id: randomUUID() }
+  return { id: input.id, examinerId, status: 'submitted', version: 2, submittedAt: new Date(), ...columnsOf(input, computeEstimate(input)) }
+}
+
+/**
+ * Each pair: a resident, then 10–100 minutes later an attending of the same team, the resident reading about 1 cm
+ * lower; each patient is seen on 4 days. Answers the id of one exam, to change between runs.
+ */
+async function insertPairs(staff: Awaited<ReturnType<typeof makeStaff>>, transaction: Transaction): Promise<string> {
+  const start = Date.UTC(2026, 0, 1)
+  const base = ExamInputSchema.parse({
+    ...{ id: randomUUID(), patientCode: 'BN-0', teamId: staff.teams[0]!.id, examinedAt: new Date(start).toISOString() },
+    ...{ inclinationDeg: 45, vein: 'right-internal', columnTop: 'seen', heightCm: 4 },
+  })
+  for (let from = 0; from < PAIRS; from += CHUNK) {
+    const rows = []
+    for (let p = from; p < from + CHUNK; p++) {
+      const patient = Math.floor(p / VISITS_PER_PATIENT)
+      const at = start + patient * 3 * 60_000 + (p % VISITS_PER_PATIENT) * 86_400_000
+      const resident = staff.residents[patient % 30]!
+      const team = staff.teams[patient % 3]!
+      const truth = halfCm(random() * 10 - 2)
+      const common = { patientCode: `BN-${patient}`, teamId: team.id, inclinationDeg: 30 + (p % 31) }
+      const attending = staff.attendings[(patient % 3) + 3 * (p % 3)]!
+      const later = new Date(at + (10 + (p % 91)) * 60_000).toISOString()
+      rows.push(examRow(base, resident.id, { ...common, heightCm: halfCm(truth - 1 + random() * 4 - 2), examinedAt: new Date(at).toISOString() }))
+      rows.push(examRow(base, attending.id, { ...common, heightCm: truth, examinedAt: later }))
+    }
+    await ExamModel.bulkCreate(rows, { transaction })
+  }
+  // As if recorded over the year: each exam last written when it was examined.
+  await ExamModel.sequelize!.query('UPDATE exams SET createdAt = examinedAt, updatedAt = examinedAt', { transaction })
+  return (await ExamModel.findOne({ transaction }))!.id
+}
+
+interface Timing {
+  wall: number
+  /** CPU time of this process (server and client), which a busy machine inflates less than wall time. */
+  cpu: number
+}
+
+async function runs(measure: () => Promise<Timing>): Promise<Timing[]> {
+  const timings: Timing[] = []
+  for (let i = 0; i < RUNS; i++) timings.push(await measure())
+  return timings
+}
+const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor(values.length / 2)]!
+const ms = (value: number) => `${value.toFixed(0)} ms`.padStart(7)
+const report = (timings: Timing[]) => {
+  const wall = timings.map((t) => t.wall)
+  return `median ${ms(median(wall))}, max ${ms(Math.max(...wall))}   (CPU median ${ms(median(timings.map((t) => t.cpu)))})`
+}
+
+async function timeSummary(url: string, auth: string): Promise<Timing> {
+  const [started, cpu] = [performance.now(), process.cpuUsage()]
+  const res = await fetch(`${url}/api/agreement/summary`, { headers: { authorization: auth } })
+  const body = (await res.json()) as { n: number }
+  const used = process.cpuUsage(cpu)
+  if (res.status !== 200 || body.n !== PAIRS) throw new Error(`Unexpected answer ${res.status}: ${JSON.stringify(body).slice(0, 200)}`)
+  return { wall: performance.now() - started, cpu: (used.user + used.system) / 1000 }
+}
+
+const dir = mkdtempSync(path.join(tmpdir(), 'plumbline-bench-'))
+const sequelize = openDatabase(path.join(dir, 'bench.sqlite'))
+try {
+  initModels(sequelize)
+  await createMigrator(sequelize).up()
+  const staff = await makeStaff()
+  const seeding = performance.now()
+  const anyExamId = await sequelize.transaction((transaction) => insertPairs(staff, transaction))
+  console.log(`Inserted ${2 * PAIRS} exams (${PAIRS} pairs) in ${((performance.now() - seeding) / 1000).toFixed(1)} s`)
+  const server = createApp({ secret: SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false }).listen(0, '127.0.0.1')
+  await new Promise((resolve) => server.once('listening', resolve))
+  const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
+  const auth = `Bearer ${signAccessToken(SECRET, { sub: staff.educator.id, roles: ['educator'] })}`
+  const first = await timeSummary(url, auth)
+  const repeated = await runs(() => timeSummary(url, auth))
+  const afterWrite = await runs(async () => {
+    await ExamModel.update({ notes: `bench ${performance.now()}` }, { where: { id: anyExamId } })
+    return timeSummary(url, auth)
+  })
+  server.close()
+  console.log(`GET /api/agreement/summary over ${PAIRS} pairs (${RUNS} runs each):`)
+  console.log(`  first request (builds every pair)       ${ms(first.wall)}              (CPU ${ms(first.cpu)})`)
+  console.log(`  repeated, database unchanged (reused)   ${report(repeated)}`)
+  console.log(`  each after an exam changed (caught up)  ${report(afterWrite)}`)
+  const worst = Math.max(median(repeated.map((t) => t.wall)), median(afterWrite.map((t) => t.wall)))
+  console.log(`target ≤ ${TARGET_MS} ms (median of each series): ${worst <= TARGET_MS ? 'PASS' : 'FAIL'}`)
+} finally {
+  await sequelize.close()
+  rmSync(dir, { recursive: true, force: true })
+}

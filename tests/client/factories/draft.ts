@@ -1,0 +1,24 @@
+import { ExamFindingsSchema, type ExamFindings, type ExamFindingsInput } from '#shared/schemas/exam'
+import { newDraft, type DraftFields, type DraftRow } from '@/db/draft-schema'
+
+/** §4's worked example: vertical 4 cm at 45°, ruler, incline-adjusted, right internal, three venous signs. */
+export const WORKED_EXAMPLE: DraftFields = {
+  patientCode: 'SM-0142',
+  teamId: 't-1',
+  inclinationDeg: 45,
+  vein: 'right-internal',
+  venousSigns: ['not-palpable', 'double-peaked', 'falls-on-inspiration'],
+  columnTop: 'seen',
+  heightMethod: 'vertical',
+  heightCm: 4,
+  readingPrecision: 'ruler',
+}
+
+export function makeDraft(fields: DraftFields = {}, overrides: Partial<DraftRow> = {}): DraftRow {
+  const row = newDraft([{ id: 't-1', name: 'Cardiology A' }])
+  return { ...row, ...overrides, fields: { ...row.fields, ...fields } }
+}
+
+export function makeFindings(overrides: Partial<ExamFindingsInput> = {}): ExamFindings {
+  return ExamFindingsSchema.parse({ ...WORKED_EXAMPLE, ...overrides })
+}

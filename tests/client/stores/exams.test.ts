@@ -1,0 +1,86 @@
+import { beforeEach, describe, expect, it, vi } from 'vitest'
+import { createPinia, setActivePinia } from 'pinia'
+import { useExamsStore } from '@/stores/exams'
+import * as api from '@/api/exams'
+import { makeExam, makeExamList } from '../components/exam/make-exam'
+
+vi.mock('@/api/exams', () => ({ fetchExams: vi.fn(), fetchExam: vi.fn(), submitExam: vi.fn() }))
+
+describe('exams store', () => {
+  beforeEach(() => {
+    setActivePinia(createPinia())
+    vi.mocked(api.fetchExams).mockReset()
+    vi.mocked(api.fetchExam).mockReset()
+    vi.mocked(api.submitExam).mockReset()
+  })
+
+  it('loads the newest exams first by default and keeps the total', async () => {
+    const rows = [makeExam(), makeExam()]
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList(rows, 40))
+    const store = useExamsStore()
+
+    await store.loadList()
+
+    expect(api.fetchExams).toHaveBeenCalledWith(expect.objectContaining({ sort: 'examinedAt', order: 'desc', page: 1, pageSize: 25 }))
+    expect(store.exams).toEqual(rows)
+    expect(store.total).toBe(40)
+  })
+
+  it('setting filters replaces the previous ones and returns to the first page', () => {
+    const store = useExamsStore()
+    store.setPaging({ page: 3, pageSize: 25, sort: 'examinedAt', order: 'desc' })
+    store.setFilters({ status: 'draft', patientCode: 'SM-01' })
+
+    store.setFilters({ patientCode: 'SM-02' })
+
+    expect(store.query).toMatchObject({ patientCode: 'SM-02', status: undefined, page: 1 })
+    expect(store.hasFilters).toBe(true)
+  })
+
+  it('reports whether the table paging changed, so an unchanged table does not reload', () => {
+    const store = useExamsStore()
+
+    const unchanged = store.setPaging({ page: 1, pageSize: 25, sort: 'examinedAt', order: 'desc' })
+    const changed = store.setPaging({ page: 1, pageSize: 25, sort: 'cvpCmH2O', order: 'asc' })
+
+    expect(unchanged).toBe(false)
+    expect(changed).toBe(true)
+    expect(store.query).toMatchObject({ sort: 'cvpCmH2O', order: 'asc' })
+  })
+
+  it('when an older list answer arrives after a newer one, keeps the newer rows', async () => {
+    const older = makeExam({ patientCode: 'SM-OLD' })
+    const newer = makeExam({ patientCode: 'SM-NEW' })
+    let answerOlder: (value: ReturnType<typeof makeExamList>) => void = () => {}
+    vi.mocked(api.fetchExams)
+      .mockReturnValueOnce(new Promise((resolve) => (answerOlder = resolve)))
+      .mockResolvedValueOnce(makeExamList([newer]))
+    const store = useExamsStore()
+
+    const first = store.loadList()
+    await store.loadList()
+    answerOlder(makeExamList([older]))
+    await first
+
+    expect(store.exams.map((exam) => exam.patientCode)).toEqual(['SM-NEW'])
+    expect(store.loading).toBe(false)
+  })
+
+  it('submitting keeps the server copy on the detail page and in the log', async () => {
+    const draft = makeExam()
+    const submitted = { ...draft, status: 'submitted' as const, version: 2 }
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([draft]))
+    vi.mocked(api.fetchExam).mockResolvedValue(draft)
+    vi.mocked(api.submitExam).mockResolvedValue(submitted)
+    const store = useExamsStore()
+    await store.loadList()
+    await store.loadExam(draft.id)
+
+    await store.submit(draft.id)
+
+    expect(api.submitExam).toHaveBeenCalledWith(draft.id)
+    expect(store.current?.status).toBe('submitted')
+    expect(store.exams[0]?.version).toBe(2)
+    expect(store.submitting).toBe(false)
+  })
+})

@@ -1,0 +1,80 @@
+import { beforeEach, describe, expect, it, vi } from 'vitest'
+import { createPinia, setActivePinia } from 'pinia'
+import { useExamsStore } from '@/stores/exams'
+import { useSignoffStore } from '@/stores/signoff'
+import * as supervision from '@/api/supervision'
+import { makeExam } from '../components/exam/make-exam'
+import { makeSignature } from '../factories/signature'
+
+vi.mock('@/api/supervision')
+vi.mock('@/api/exams')
+
+describe('sign-off store', () => {
+  beforeEach(() => {
+    setActivePinia(createPinia())
+    vi.resetAllMocks()
+  })
+
+  it('keeps the last known count when the count cannot be fetched, and does not throw', async () => {
+    vi.mocked(supervision.fetchSignoffCount).mockResolvedValueOnce(3).mockRejectedValueOnce(new TypeError('Failed to fetch'))
+    const store = useSignoffStore()
+    await store.refreshCount()
+
+    await store.refreshCount()
+
+    expect(store.count).toBe(3)
+  })
+
+  it('loading the queue also updates the count', async () => {
+    const item = { exam: makeExam({ status: 'submitted' }), waitingSeconds: 60 }
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({ items: [item], total: 7, page: 1, pageSize: 25 })
+    const store = useSignoffStore()
+
+    await store.loadQueue()
+
+    expect(store.count).toBe(7)
+  })
+
+  it('a countersigned exam leaves the queue and replaces the exam on screen', async () => {
+    const exam = makeExam({ status: 'submitted' })
+    const signed = { ...exam, status: 'countersigned' as const, signatures: [makeSignature({ examId: exam.id })] }
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({ items: [{ exam, waitingSeconds: 60 }], total: 1, page: 1, pageSize: 25 })
+    vi.mocked(supervision.countersignExam).mockResolvedValue(signed)
+    vi.mocked(supervision.fetchSignoffCount).mockResolvedValue(0)
+    const store = useSignoffStore()
+    await store.loadQueue()
+    useExamsStore().current = exam
+
+    await store.countersign(exam.id, { password: 'bedside-demo', meaning: 'reviewed-agree', baseVersion: 1 })
+
+    expect(store.items).toEqual([])
+    expect(store.total).toBe(0)
+    expect(useExamsStore().current).toEqual(signed)
+  })
+
+  it('a failed countersignature changes nothing', async () => {
+    const exam = makeExam({ status: 'submitted' })
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({ items: [{ exam, waitingSeconds: 60 }], total: 1, page: 1, pageSize: 25 })
+    vi.mocked(supervision.countersignExam).mockRejectedValue(new Error('401'))
+    const store = useSignoffStore()
+    await store.loadQueue()
+    useExamsStore().current = exam
+
+    await expect(store.countersign(exam.id, { password: 'x', meaning: 'reviewed-agree' })).rejects.toThrow()
+
+    expect(store.items).toHaveLength(1)
+    expect(useExamsStore().current).toEqual(exam)
+  })
+
+  it('a resubmitted or amended exam drops out of the returned list', async () => {
+    const returned = makeExam({ status: 'returned', returnComment: 'Recheck.' })
+    vi.mocked(supervision.fetchReturnedExams).mockResolvedValue([returned])
+    vi.mocked(supervision.amendExam).mockResolvedValue({ ...returned, status: 'draft', version: 2 })
+    const store = useSignoffStore()
+    await store.loadReturned(returned.examinerId)
+
+    await store.amend(returned.id, 1)
+
+    expect(store.returned).toEqual([])
+  })
+})

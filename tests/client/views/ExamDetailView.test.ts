@@ -1,0 +1,194 @@
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
+import { flushPromises, mount } from '@vue/test-utils'
+import { createPinia, setActivePinia } from 'pinia'
+import { createMemoryHistory, createRouter } from 'vue-router'
+import { createVuetify } from 'vuetify'
+import ExamDetailView from '@/views/ExamDetailView.vue'
+import { routes } from '@/router/routes'
+import { useSessionStore } from '@/stores/session'
+import * as api from '@/api/exams'
+import * as supervision from '@/api/supervision'
+import type { Exam } from '#shared/schemas/exam'
+import { makeExam } from '../components/exam/make-exam'
+import { makeSignature } from '../factories/signature'
+import { makeUser } from '../factories/user'
+
+vi.mock('@/api/exams', () => ({ fetchExams: vi.fn(), fetchExam: vi.fn(), submitExam: vi.fn() }))
+vi.mock('@/api/supervision')
+
+async function mountDetail(exam: Exam, viewerId = exam.examinerId, roles = makeUser().roles) {
+  useSessionStore().user = makeUser({ id: viewerId, roles })
+  vi.mocked(api.fetchExam).mockResolvedValue(exam)
+  const router = createRouter({ history: createMemoryHistory(), routes })
+  await router.push({ name: 'exam-detail', params: { id: exam.id } })
+  const wrapper = mount(ExamDetailView, { global: { plugins: [createVuetify(), router] }, attachTo: document.body })
+  await flushPromises()
+  return wrapper
+}
+
+function stubClipboard(writeText: (text: string) => Promise<void>) {
+  Object.defineProperty(navigator, 'clipboard', { value: { writeText: vi.fn(writeText) }, configurable: true })
+  return navigator.clipboard.writeText
+}
+
+describe('ExamDetailView', () => {
+  beforeEach(() => {
+    setActivePinia(createPinia())
+    vi.mocked(api.submitExam).mockReset()
+  })
+
+  afterEach(() => {
+    document.body.innerHTML = ''
+  })
+
+  it('shows the findings in groups and the estimate with its band', async () => {
+    const wrapper = await mountDetail(makeExam())
+
+    const text = wrapper.text()
+    for (const group of ['Patient and position', 'Pulsation', 'Height', 'Waveform and manoeuvres', 'Notes']) expect(text).toContain(group)
+    expect(wrapper.find('[data-testid="exam-estimate-cmh2o"]').text()).toContain('13.7')
+    expect(wrapper.find('[data-testid="exam-version"]').text()).toBe('Version 1')
+  })
+
+  it('"Copy as note" writes the plain-text note to the clipboard and confirms it', async () => {
+    const writeText = stubClipboard(async () => {})
+    const wrapper = await mountDetail(makeExam())
+
+    await wrapper.find('[data-testid="exam-copy-note"]').trigger('click')
+    await flushPromises()
+
+    expect(writeText).toHaveBeenCalledOnce()
+    expect(vi.mocked(writeText).mock.calls[0]?.[0]).toContain('Estimated CVP: 13.7 cmH₂O (10.1 mmHg)')
+    expect(document.body.textContent).toContain('Note copied')
+  })
+
+  it('when the clipboard refuses, shows the note in a dialog to copy by hand', async () => {
+    stubClipboard(async () => {
+      throw new DOMException('Denied', 'NotAllowedError')
+    })
+    const wrapper = await mountDetail(makeExam())
+
+    await wrapper.find('[data-testid="exam-copy-note"]').trigger('click')
+    await flushPromises()
+
+    const textarea = document.querySelector<HTMLTextAreaElement>('[data-testid="note-text"] textarea')
+    expect(textarea?.value).toContain('13.7 cmH₂O')
+  })
+
+  it.each(['draft', 'returned'] as const)('offers "Submit for countersignature" to the author of a %s exam', async (status) => {
+    const wrapper = await mountDetail(makeExam({ status }))
+
+    expect(wrapper.find('[data-testid="exam-submit"]').exists()).toBe(true)
+    expect(wrapper.find('[data-testid="exam-edit"]').attributes('href')).toBe(`/record/${wrapper.vm.$route.params.id}`)
+  })
+
+  it.each(['submitted', 'countersigned'] as const)('does not offer submitting or editing a %s exam', async (status) => {
+    const wrapper = await mountDetail(makeExam({ status }))
+
+    expect(wrapper.find('[data-testid="exam-submit"]').exists()).toBe(false)
+    expect(wrapper.find('[data-testid="exam-edit"]').exists()).toBe(false)
+  })
+
+  it("does not offer submitting another examiner's draft", async () => {
+    const wrapper = await mountDetail(makeExam({ examinerId: 'u-1' }), 'u-2')
+
+    expect(wrapper.find('[data-testid="exam-submit"]').exists()).toBe(false)
+  })
+
+  it('submitting sends the exam, shows its new status and hides the button', async () => {
+    const exam = makeExam()
+    vi.mocked(api.submitExam).mockResolvedValue({ ...exam, status: 'submitted', version: 2 })
+    const wrapper = await mountDetail(exam)
+
+    await wrapper.find('[data-testid="exam-submit"]').trigger('click')
+    await flushPromises()
+
+    expect(api.submitExam).toHaveBeenCalledWith(exam.id)
+    expect(wrapper.find('[data-testid="status-submitted"]').exists()).toBe(true)
+    expect(wrapper.find('[data-testid="exam-submit"]').exists()).toBe(false)
+  })
+
+  it('shows the countersignature with its printed name, time zone and meaning', async () => {
+    const exam = makeExam({ status: 'countersigned', signatures: [makeSignature()] })
+
+    const wrapper = await mountDetail(exam)
+
+    const signature = wrapper.find('[data-testid="exam-signatures"]').text()
+    expect(signature).toContain('Dr Tomas Lindqvist')
+    expect(signature).toContain('14 Jul 2026, 09:30 BST (Europe/London)')
+    expect(signature).toContain('Reviewed, and agrees with the findings')
+  })
+
+  it('"Copy as note" includes the countersignature', async () => {
+    const writeText = stubClipboard(async () => {})
+    const wrapper = await mountDetail(makeExam({ status: 'countersigned', signatures: [makeSignature()] }))
+
+    await wrapper.find('[data-testid="exam-copy-note"]').trigger('click')
+    await flushPromises()
+
+    expect(vi.mocked(writeText).mock.calls[0]?.[0]).toContain('Countersigned by Dr Tomas Lindqvist, 14 Jul 2026, 09:30 BST')
+  })
+
+  it('shows the attending\'s comment at the top of a returned exam and offers resubmitting and amending', async () => {
+    const exam = makeExam({ status: 'returned', returnComment: 'Recheck the height with a ruler.' })
+
+    const wrapper = await mountDetail(exam)
+
+    expect(wrapper.find('[data-testid="exam-return-comment"]').text()).toContain('Recheck the height with a ruler.')
+    expect(wrapper.find('[data-testid="exam-submit"]').text()).toContain('Resubmit')
+    expect(wrapper.find('[data-testid="exam-amend"]').exists()).toBe(true)
+  })
+
+  it('amending a countersigned exam warns that the signature will be superseded, then reopens it as a draft', async () => {
+    const exam = makeExam({ status: 'countersigned', signatures: [makeSignature()] })
+    const superseded = makeSignature({ superseded: true, supersededAt: '2026-07-15T08:00:00.000+01:00' })
+    vi.mocked(supervision.amendExam).mockResolvedValue({ ...exam, status: 'draft', version: 3, signatures: [superseded] })
+    const wrapper = await mountDetail(exam)
+
+    await wrapper.find('[data-testid="exam-amend"]').trigger('click')
+    await flushPromises()
+    const warning = document.querySelector('[data-testid="amend-dialog"]')?.textContent
+    document.querySelector<HTMLElement>('[data-testid="amend-confirm"]')!.click()
+    await flushPromises()
+
+    expect(warning).toContain('marked as superseded')
+    expect(supervision.amendExam).toHaveBeenCalledWith(exam.id, { baseVersion: exam.version })
+    expect(wrapper.find('[data-testid="status-draft"]').exists()).toBe(true)
+    expect(wrapper.find('[data-testid="signature-superseded"]').exists()).toBe(true)
+  })
+
+  it('offers an attending of the team to review and sign a submitted exam', async () => {
+    const exam = makeExam({ status: 'submitted', examinerId: 'res-1', teamId: 't-1' })
+
+    const wrapper = await mountDetail(exam, 'att-1', ['attending'])
+
+    expect(wrapper.find('[data-testid="exam-review"]').exists()).toBe(true)
+  })
+
+  it('does not offer reviewing one\'s own exam, even to an attending', async () => {
+    const exam = makeExam({ status: 'submitted', examinerId: 'att-1', teamId: 't-1' })
+
+    const wrapper = await mountDetail(exam, 'att-1', ['attending'])
+
+    expect(wrapper.find('[data-testid="exam-review"]').exists()).toBe(false)
+  })
+
+  it('opening the history panel shows who did what and when, with before → after', async () => {
+    const exam = makeExam({ status: 'submitted' })
+    vi.mocked(supervision.fetchExamHistory).mockResolvedValue([
+      { id: 1, at: '2026-03-14T09:35:00.000Z', actorId: 'u-1', actorName: 'Dr Sam Whitcombe', action: 'exam-create', entityType: 'exam', entityId: exam.id, changes: null },
+      { id: 2, at: '2026-03-14T09:40:00.000Z', actorId: 'u-1', actorName: 'Dr Sam Whitcombe', action: 'exam-update', entityType: 'exam', entityId: exam.id, changes: { heightCm: { from: 3, to: 4 } } },
+    ])
+    const wrapper = await mountDetail(exam)
+
+    await wrapper.find('[data-testid="exam-history-toggle"]').trigger('click')
+    await flushPromises()
+
+    const events = wrapper.findAll('[data-testid="exam-history-event"]')
+    expect(supervision.fetchExamHistory).toHaveBeenCalledWith(exam.id)
+    expect(events).toHaveLength(2)
+    expect(events[1]!.text()).toContain('Exam changed')
+    expect(events[1]!.text()).toContain('Dr Sam Whitcombe')
+    expect(events[1]!.text()).toContain('heightCm: 3 → 4')
+  })
+})

@@ -1,0 +1,183 @@
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
+import { flushPromises, mount } from '@vue/test-utils'
+import { createPinia, setActivePinia } from 'pinia'
+import { createMemoryHistory, createRouter } from 'vue-router'
+import { createVuetify } from 'vuetify'
+import ExamLogView from '@/views/ExamLogView.vue'
+import { routes } from '@/router/routes'
+import { useSessionStore } from '@/stores/session'
+import * as api from '@/api/exams'
+import * as supervision from '@/api/supervision'
+import { makeExam, makeExamList } from '../components/exam/make-exam'
+import { makeUser } from '../factories/user'
+
+vi.mock('@/api/exams', () => ({ fetchExams: vi.fn(), fetchExam: vi.fn(), submitExam: vi.fn() }))
+vi.mock('@/api/supervision')
+
+const desktopWidth = window.innerWidth
+
+async function mountLog(roles = makeUser().roles) {
+  useSessionStore().user = makeUser({ roles })
+  const router = createRouter({ history: createMemoryHistory(), routes })
+  await router.push({ name: 'exams' })
+  const wrapper = mount(ExamLogView, { global: { plugins: [createVuetify(), router] }, attachTo: document.body })
+  await flushPromises()
+  return { wrapper, router }
+}
+
+function lastQuery() {
+  return vi.mocked(api.fetchExams).mock.lastCall?.[0]
+}
+
+describe('ExamLogView', () => {
+  beforeEach(() => {
+    setActivePinia(createPinia())
+    vi.mocked(api.fetchExams).mockReset()
+    vi.mocked(supervision.fetchReturnedExams).mockReset().mockResolvedValue([])
+  })
+
+  afterEach(() => {
+    window.innerWidth = desktopWidth
+    document.body.innerHTML = ''
+  })
+
+  it('shows each exam with its status, patient code, height, CVP and band', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam({ patientCode: 'SM-0142', status: 'submitted' })]))
+
+    const { wrapper } = await mountLog()
+
+    const row = wrapper.find('[data-testid="exam-table"] tbody tr')
+    expect(row.text()).toContain('SM-0142')
+    expect(row.text()).toContain('Submitted')
+    expect(row.text()).toContain('4.0')
+    expect(row.text()).toContain('13.7')
+    expect(row.text()).toContain('9.2–18.2')
+  })
+
+  it('when a patient code is typed, asks the server for that code from the first page', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+    const { wrapper } = await mountLog()
+    const input = wrapper.find('[data-testid="filter-patient"] input')
+
+    await input.setValue('SM-0142')
+    await input.trigger('change')
+    await flushPromises()
+
+    expect(lastQuery()).toMatchObject({ patientCode: 'SM-0142', page: 1 })
+  })
+
+  it('when a status chip is chosen, asks the server for that status only', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+    const { wrapper } = await mountLog()
+
+    await wrapper.find('[data-testid="filter-status-returned"]').trigger('click')
+    await flushPromises()
+
+    expect(lastQuery()).toMatchObject({ status: 'returned' })
+  })
+
+  it('when a start date is chosen, sends the start of that local day', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+    const { wrapper } = await mountLog()
+
+    await wrapper.find('[data-testid="filter-from"] input').setValue('2026-03-01')
+    await flushPromises()
+
+    expect(lastQuery()?.from).toBe(new Date('2026-03-01T00:00:00').toISOString())
+  })
+
+  it('when the CVP header is clicked, asks the server to sort by CVP ascending, then descending', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+    const { wrapper } = await mountLog()
+    const header = () => wrapper.findAll('th').find((th) => th.text().includes('CVP'))!
+
+    await header().trigger('click')
+    await flushPromises()
+    const first = lastQuery()
+    await header().trigger('click')
+    await flushPromises()
+
+    expect(first).toMatchObject({ sort: 'cvpCmH2O', order: 'asc', page: 1 })
+    expect(lastQuery()).toMatchObject({ sort: 'cvpCmH2O', order: 'desc' })
+  })
+
+  it('when a row is clicked, opens that exam', async () => {
+    const exam = makeExam()
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([exam]))
+    const { wrapper, router } = await mountLog()
+
+    await wrapper.find('[data-testid="exam-table"] tbody tr').trigger('click')
+
+    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('exam-detail'))
+    expect(router.currentRoute.value.params.id).toBe(exam.id)
+  })
+
+  it('when there are no exams, says so', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([]))
+
+    const { wrapper } = await mountLog()
+
+    expect(wrapper.find('[data-testid="exam-log-empty"]').text()).toContain('No exams yet')
+  })
+
+  it('when the server cannot be reached, shows the load error with a retry', async () => {
+    vi.mocked(api.fetchExams).mockRejectedValue(new TypeError('Failed to fetch'))
+
+    const { wrapper } = await mountLog()
+
+    expect(wrapper.text()).toContain('Cannot reach the server')
+    expect(wrapper.find('button').text()).toContain('Retry')
+  })
+
+  it('for an educator, who sees masked codes, offers neither a code search nor sorting by code', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+
+    const { wrapper } = await mountLog(['educator'])
+
+    expect(wrapper.find('[data-testid="filter-patient"]').exists()).toBe(false)
+    const patientHeader = wrapper.findAll('th').find((th) => th.text() === 'Patient')
+    expect(patientHeader?.classes()).not.toContain('v-data-table__th--sortable')
+  })
+
+  it('on a 360 px phone, drops the height and band columns and shows the band beside the CVP', async () => {
+    window.innerWidth = 360
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+
+    const { wrapper } = await mountLog()
+
+    const table = wrapper.find('[data-testid="exam-table"]')
+    expect(table.text()).not.toContain('Height (cm)')
+    expect(table.text()).toContain('13.7 (9.2–18.2)')
+  })
+
+  it('lists the author\'s returned exams with the attending\'s comment above the log', async () => {
+    const returned = makeExam({ patientCode: 'SM-0157', status: 'returned', returnComment: 'Which vein? Say so in the notes.' })
+    vi.mocked(supervision.fetchReturnedExams).mockResolvedValue([returned])
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([returned]))
+
+    const { wrapper } = await mountLog()
+
+    const banner = wrapper.find('[data-testid="returned-exams"]')
+    expect(supervision.fetchReturnedExams).toHaveBeenCalledWith('u-1')
+    expect(banner.text()).toContain('One exam came back to you')
+    expect(banner.text()).toContain('SM-0157')
+    expect(banner.text()).toContain('Which vein? Say so in the notes.')
+    expect(banner.find(`[data-testid="returned-${returned.id}"]`).attributes('href')).toBe(`/exams/${returned.id}`)
+  })
+
+  it('shows no returned banner when nothing came back', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+
+    const { wrapper } = await mountLog()
+
+    expect(wrapper.find('[data-testid="returned-exams"]').exists()).toBe(false)
+  })
+
+  it('does not look for returned exams for an educator, who records none', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+
+    await mountLog(['educator'])
+
+    expect(supervision.fetchReturnedExams).not.toHaveBeenCalled()
+  })
+})

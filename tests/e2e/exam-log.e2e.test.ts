@@ -1,0 +1,99 @@
+import { randomUUID } from 'node:crypto'
+import type { Browser, BrowserContext } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { DEMO_PASSWORD, launchChromium, signInAs, startDemoServer } from './browser.ts'
+
+const RESIDENT = 'resident@saltmarsh.test'
+
+let server: Awaited<ReturnType<typeof startDemoServer>>
+let browser: Browser
+let examId: string
+const patientCode = `SM-LOG-${randomUUID().slice(0, 6).toUpperCase()}`
+
+async function apiAs(email: string) {
+  const login = await fetch(`${server.url}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
+  })
+  const { token, user } = (await login.json()) as { token: string; user: { teams: { id: string }[] } }
+  return { headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' }, teamId: user.teams[0]!.id }
+}
+
+/** The worked example of PRODUCT.md §4 (h = 4 cm at 45°, ruler, incline-adjusted), created through the real API. */
+async function createWorkedExample() {
+  const { headers, teamId } = await apiAs(RESIDENT)
+  const body = {
+    id: randomUUID(),
+    patientCode,
+    teamId,
+    examinedAt: new Date().toISOString(),
+    inclinationDeg: 45,
+    vein: 'right-internal',
+    columnTop: 'seen',
+    heightMethod: 'vertical',
+    heightCm: 4,
+    readingPrecision: 'ruler',
+    offsetModel: 'incline-adjusted',
+    venousSigns: ['not-palpable', 'double-peaked', 'falls-on-inspiration'],
+  }
+  const response = await fetch(`${server.url}/api/exams`, { method: 'POST', headers, body: JSON.stringify(body) })
+  expect(response.status).toBe(201)
+  return body.id
+}
+
+async function signedInPage(context: BrowserContext) {
+  const page = await context.newPage()
+  await signInAs(page, server.url, RESIDENT)
+  await expect.poll(() => page.getByTestId('nav-exams').isVisible()).toBe(true)
+  return page
+}
+
+beforeAll(async () => {
+  server = await startDemoServer()
+  browser = await launchChromium()
+  examId = await createWorkedExample()
+})
+
+afterAll(async () => {
+  await browser?.close()
+  await server?.close()
+})
+
+describe('the exam log in Chromium', () => {
+  it('the resident finds the worked example in the log, opens it and copies the note', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 800 } })
+    await context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: server.url })
+    const page = await signedInPage(context)
+
+    await page.getByTestId('nav-exams').click()
+    await page.getByTestId('filter-patient').locator('input').fill(patientCode)
+    await page.getByTestId('filter-patient').locator('input').press('Enter')
+    const row = page.getByTestId('exam-table').locator('tbody tr', { hasText: patientCode })
+    await expect.poll(() => row.isVisible()).toBe(true)
+    expect(await row.textContent()).toContain('9.2–18.2')
+    await row.click()
+
+    await expect.poll(() => new URL(page.url()).pathname).toBe(`/exams/${examId}`)
+    await expect.poll(() => page.getByTestId('exam-estimate-cmh2o').textContent()).toContain('13.7')
+    await page.getByTestId('exam-copy-note').click()
+    await expect.poll(() => page.getByTestId('exam-snackbar').textContent()).toContain('Note copied')
+    const note = await page.evaluate(() => navigator.clipboard.readText())
+    expect(note).toContain('13.7 cmH₂O')
+    expect(note).toContain(`patient ${patientCode}`)
+    await context.close()
+  })
+
+  it('on a 360 px phone, the log fits the screen and still shows the CVP with its band', async () => {
+    const context = await browser.newContext({ viewport: { width: 360, height: 740 }, isMobile: true, hasTouch: true })
+    const page = await signedInPage(context)
+
+    await page.goto(`${server.url}/exams`)
+    const row = page.getByTestId('exam-table').locator('tbody tr', { hasText: patientCode })
+    await expect.poll(() => row.isVisible()).toBe(true)
+
+    expect(await row.textContent()).toContain('13.7 (9.2–18.2)')
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(360)
+    await context.close()
+  })
+})

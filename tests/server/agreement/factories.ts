@@ -1,0 +1,43 @@
+import request from 'supertest'
+import { computeEstimate } from '#shared/domain/estimate'
+import { AgreementPairListSchema, AgreementSummarySchema } from '#shared/schemas/agreement'
+import { ExamInputSchema, type ExamInputRaw } from '#shared/schemas/exam'
+import { columnsOf } from '../../../server/exams/exam-record.ts'
+import { ExamModel } from '../../../server/models/index.ts'
+import { makeExamInput } from '../factories/exam.ts'
+
+type App = Parameters<typeof request>[0]
+
+export const MINUTE = 60_000
+export const DAY = 24 * 60 * MINUTE
+
+export interface StoredExam {
+  examinerId: string
+  teamId: string
+  /** examinedAt, epoch ms. */
+  at: number
+  heightCm?: number
+  patientCode?: string
+  status?: 'draft' | 'submitted' | 'countersigned' | 'returned'
+  findings?: Partial<ExamInputRaw>
+}
+
+/** Stores an exam as the exams service would (same columns and estimate), straight into the table. */
+export async function storeExam(e: StoredExam): Promise<ExamModel> {
+  const examinedAt = new Date(e.at).toISOString()
+  const raw = makeExamInput({ teamId: e.teamId, patientCode: e.patientCode ?? 'SM-0142', examinedAt, heightCm: e.heightCm ?? 4, ...e.findings })
+  const input = ExamInputSchema.parse(raw)
+  const status = e.status ?? 'submitted'
+  const workflow = { id: input.id, examinerId: e.examinerId, status, version: 2, submittedAt: status === 'draft' ? null : new Date(e.at) }
+  return ExamModel.create({ ...workflow, ...columnsOf(input, computeEstimate(input)) })
+}
+
+export async function summaryAs(app: App, auth: string, query: Record<string, string> = {}) {
+  const res = await request(app).get('/api/agreement/summary').set('Authorization', auth).query(query)
+  return { res, summary: res.status === 200 ? AgreementSummarySchema.parse(res.body) : undefined }
+}
+
+export async function pairsAs(app: App, auth: string, query: Record<string, string | number> = {}) {
+  const res = await request(app).get('/api/agreement/pairs').set('Authorization', auth).query(query)
+  return { res, list: res.status === 200 ? AgreementPairListSchema.parse(res.body) : undefined }
+}
