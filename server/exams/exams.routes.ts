@@ -1,6 +1,7 @@
 import { Router, type Request, type Response } from 'express'
 import { z } from 'zod'
 import { computeEstimate } from '#shared/domain/estimate'
+import { observerTerm } from '../agreement/observer-term.ts'
 import { ExamFindingsSchema, ExamInputSchema, ExamListQuerySchema, ExamPatchSchema } from '#shared/schemas/exam'
 import { currentUser, requireRole } from '../middleware/auth.ts'
 import { requestNotifier, type SupervisionRouterOptions } from '../supervision/supervision.routes.ts'
@@ -21,7 +22,9 @@ export function examsRouter(options: SupervisionRouterOptions): Router {
   const readers = requireRole('resident', 'attending', 'educator')
   const authors = requireRole('resident', 'attending')
 
-  router.post('/estimate', readers, (req, res) => res.json(computeEstimate(ExamFindingsSchema.parse(req.body))))
+  router.post('/estimate', readers, async (req, res) =>
+    res.json(computeEstimate(ExamFindingsSchema.parse(req.body), { observer: await observerTerm() })),
+  )
   router.get('/exams', readers, async (req, res) => res.json(await listExams(viewer(res), ExamListQuerySchema.parse(req.query))))
   router.get('/exams/:id', async (req, res) => res.json(await getExam(viewer(res), idOf(req))))
   router.post('/exams', authors, async (req, res) => {

@@ -6,6 +6,7 @@ import { AppError } from '../errors.ts'
 import { ExamModel } from '../models/index.ts'
 import { changesBetween, snapshotOf } from './exam-changes.ts'
 import { columnsOf, presentOwn, sameRecord, storedInput } from './exam-record.ts'
+import { invalidateObserverTerm, observerTerm } from '../agreement/observer-term.ts'
 import { authoredRow, checkBaseVersion, conflict, inTransaction, saveChange } from './exam-writes.ts'
 
 const FUTURE_TOLERANCE_MS = 5 * 60 * 1000
@@ -24,6 +25,8 @@ function checkAuthorFields(author: User, input: ExamInput, before: ExamModel | n
 
 /** A new draft by the signed-in author. The same id sent again by its author with the same content is an offline retry. */
 export async function createExam(author: User, input: ExamInput): Promise<{ exam: Exam; created: boolean }> {
+  // Read before the write transaction: the local observer spread comes from other exams (§4.4).
+  const observer = await observerTerm()
   return inTransaction(async (transaction) => {
     const existing = await ExamModel.findByPk(input.id, { transaction })
     if (existing && existing.examinerId === author.id && sameRecord(existing, input))
@@ -31,7 +34,7 @@ export async function createExam(author: User, input: ExamInput): Promise<{ exam
     if (existing) throw new AppError('id-taken', 409, 'Another exam already has this id')
     checkAuthorFields(author, input, null)
     const values = { id: input.id, examinerId: author.id, status: 'draft', version: 1, submittedAt: null }
-    const row = await ExamModel.create({ ...values, ...columnsOf(input, computeEstimate(input)) }, { transaction })
+    const row = await ExamModel.create({ ...values, ...columnsOf(input, computeEstimate(input, { observer })) }, { transaction })
     const changes = changesBetween(null, snapshotOf(row))
     await audit({ actorId: author.id, action: 'exam-create', entityType: 'exam', entityId: row.id, changes }, { transaction })
     return { exam: await presentOwn(row), created: true }
@@ -46,6 +49,7 @@ async function checkEditable(row: ExamModel, baseVersion: number | undefined): P
 
 /** Merges a change into the author's draft and re-validates the whole record; a change that changes nothing keeps the version. */
 export async function updateExam(author: User, id: string, patch: ExamPatch): Promise<Exam> {
+  const observer = await observerTerm()
   return inTransaction(async (transaction) => {
     const row = await authoredRow(author, id, transaction)
     await checkEditable(row, patch.baseVersion)
@@ -54,7 +58,7 @@ export async function updateExam(author: User, id: string, patch: ExamPatch): Pr
     const input = ExamInputSchema.parse({ ...stored, ...change, waveform: { ...(stored.waveform as object), ...change.waveform } })
     checkAuthorFields(author, input, row)
     const before = snapshotOf(row)
-    row.set(columnsOf(input, computeEstimate(input)))
+    row.set(columnsOf(input, computeEstimate(input, { observer })))
     if (!Object.keys(changesBetween(before, snapshotOf(row))).length) return row
     return saveChange(author, row, 'exam-update', transaction, before)
   }).then(presentOwn)
@@ -68,5 +72,11 @@ export async function submitExam(author: User, id: string, baseVersion?: number)
     const before = snapshotOf(row)
     row.set({ status: 'submitted', submittedAt: new Date(), returnComment: null })
     return saveChange(author, row, 'exam-submit', transaction, before)
-  }).then(presentOwn)
+  })
+    .then((row) => {
+      // A submitted exam may form a new pair, which moves the local observer spread.
+      invalidateObserverTerm()
+      return row
+    })
+    .then(presentOwn)
 }

@@ -1,5 +1,6 @@
 import type { Transaction } from 'sequelize'
-import { computeEstimate } from '#shared/domain/estimate'
+import { computeEstimate, type ObserverTerm } from '#shared/domain/estimate'
+import { observerTerm } from '../agreement/observer-term.ts'
 import { ExamInputSchema, type ExamInput } from '#shared/schemas/exam'
 import type { SyncChange, SyncResult } from '#shared/schemas/sync'
 import type { User } from '#shared/schemas/user'
@@ -32,10 +33,10 @@ async function decide(author: User, change: SyncChange, row: ExamModel | undefin
 }
 
 /** Stores new drafts in one statement, with one audit event each, as createExam would. */
-async function insertAll(author: User, inputs: ExamInput[], transaction: Transaction): Promise<ExamModel[]> {
+async function insertAll(author: User, inputs: ExamInput[], observer: ObserverTerm, transaction: Transaction): Promise<ExamModel[]> {
   if (!inputs.length) return []
   const values = inputs.map((input) => ({
-    ...columnsOf(input, computeEstimate(input)),
+    ...columnsOf(input, computeEstimate(input, { observer })),
     id: input.id,
     examinerId: author.id,
     status: 'draft',
@@ -60,6 +61,7 @@ async function insertAll(author: User, inputs: ExamInput[], transaction: Transac
  */
 export async function applyCreates(author: User, changes: SyncChange[]): Promise<Map<string, SyncResult>> {
   if (!changes.length) return new Map()
+  const observer = await observerTerm()
   return inTransaction(async (transaction) => {
     const rows = await ExamModel.findAll({ where: { id: changes.map((c) => c.exam.id) }, transaction })
     const existing = new Map(rows.map((row) => [row.id, row]))
@@ -70,7 +72,7 @@ export async function applyCreates(author: User, changes: SyncChange[]): Promise
       if ('result' in outcome) results.set(change.exam.id, outcome)
       else fresh.push(outcome)
     }
-    for (const row of await insertAll(author, fresh, transaction)) results.set(row.id, applied(row.id, row.version))
+    for (const row of await insertAll(author, fresh, observer, transaction)) results.set(row.id, applied(row.id, row.version))
     return results
   })
 }
