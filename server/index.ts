@@ -4,6 +4,7 @@ import type { AddressInfo } from 'node:net'
 import path from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { setTimeout as delay } from 'node:timers/promises'
+import { observerTerm } from './agreement/observer-term.ts'
 import { createApp } from './app.ts'
 import { loadConfig, type Config } from './config.ts'
 import { createMigrator } from './db/migrator.ts'
@@ -56,6 +57,8 @@ export async function startServer(config: Config): Promise<RunningServer> {
     mailbox: fakeSmtp,
     baseUrl: config.PUBLIC_URL,
   })
+  // Pairs every exam once now, so neither the first save nor the first agreement view pays for it.
+  void observerTerm().catch((err: unknown) => log.warn({ err }, 'could not precompute the agreement pairs'))
   const server = app.listen(config.PORT, config.HOST)
   await new Promise<void>((resolve, reject) => server.once('listening', resolve).once('error', reject))
   const { port } = server.address() as AddressInfo
