@@ -79,6 +79,39 @@ describe('the installable app shell in Chromium', () => {
     }
   })
 
+  it('a push that fails for want of a network waits in the service worker for Background Sync', async () => {
+    const server = await startDemoServer()
+    const page = await phonePage()
+    await signInAs(page, server.url, 'resident@saltmarsh.test')
+    await expect.poll(() => new URL(page.url()).pathname, WAIT).toBe('/')
+    await waitForServiceWorkerControl(page)
+
+    await server.close()
+    const failed = await page.evaluate(() =>
+      fetch('/api/sync/push', { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: '{"changes":[]}' }).then(
+        () => false,
+        () => true,
+      ),
+    )
+
+    expect(failed).toBe(true)
+    const queued = await page.evaluate(
+      () =>
+        new Promise<number>((resolve, reject) => {
+          const open = indexedDB.open('workbox-background-sync')
+          open.onerror = () => reject(open.error)
+          open.onsuccess = () => {
+            const names = Array.from(open.result.objectStoreNames)
+            if (!names.includes('requests')) return resolve(0)
+            const count = open.result.transaction('requests').objectStore('requests').count()
+            count.onsuccess = () => resolve(count.result)
+          }
+        }),
+    )
+    expect(queued).toBe(1)
+    await page.context().close()
+  })
+
   it('"This device" shows the version, the network and what the browser says about storage', async () => {
     const server = await startDemoServer()
     try {

@@ -7,7 +7,7 @@ import { storePulled } from '@/db/local-exams'
 import { loadCursor, loadProfile, saveProfile } from '@/db/meta'
 import { nextBatch } from '@/db/outbox'
 import { settleResults } from '@/db/outbox-settle'
-import { wipeLocalData } from '@/db/wipe'
+import { BACKGROUND_SYNC_DB, wipeLocalData } from '@/db/wipe'
 import { makeExam } from '../components/exam/make-exam'
 import { makeDraft } from '../factories/draft'
 import { AUTHOR, clearDevice, queued, save } from './outbox-factory'
@@ -79,6 +79,19 @@ describe('exams, conflicts and sync state on this device', () => {
 
     expect([await db.drafts.count(), await db.exams.count(), await db.outbox.count(), await db.meta.count()]).toEqual([0, 0, 0, 0])
     expect(await loadProfile()).toBeNull()
+  })
+
+  it('wiping also deletes the pushes the service worker holds for Background Sync', async () => {
+    const queue = new Dexie(BACKGROUND_SYNC_DB)
+    queue.version(1).stores({ requests: '++id, queueName' })
+    await queue.table('requests').add({ queueName: 'plumbline-push', requestData: { url: '/api/sync/push' } })
+    queue.close()
+
+    await wipeLocalData()
+
+    const names = (await indexedDB.databases()).map((d) => d.name)
+    expect(names).not.toContain(BACKGROUND_SYNC_DB)
+    expect(names).toContain('plumbline')
   })
 
   it('upgrading a device from database version 1 keeps the drafts it held', async () => {
