@@ -1,7 +1,11 @@
 import { defineStore } from 'pinia'
 import { computed, ref } from 'vue'
 import { ExamListQuerySchema, type Exam, type ExamListQuery } from '#shared/schemas/exam'
+import { isHTTPError } from 'ky'
 import { fetchExam, fetchExams, submitExam } from '@/api/exams'
+import { listLocalExams } from '@/db/local-exam-list'
+import { loadLocalExam } from '@/db/local-exams'
+import { useSessionStore } from './session'
 
 export type ExamFilters = Pick<ExamListQuery, 'status' | 'patientCode' | 'from' | 'to'>
 export type ExamPaging = Pick<ExamListQuery, 'page' | 'pageSize' | 'sort' | 'order'>
@@ -19,7 +23,21 @@ export const useExamsStore = defineStore('exams', () => {
   /** The exam open on the detail page. */
   const current = ref<Exam | null>(null)
   const submitting = ref(false)
+  /** The log shows the copies kept on this device because the server could not be reached. */
+  const fromDevice = ref(false)
   let latestRequest = 0
+
+  async function fetchList(q: ExamListQuery) {
+    try {
+      const list = await fetchExams({ ...q })
+      return { list, local: false }
+    } catch (e) {
+      const userId = useSessionStore().user?.id
+      // Only a missing network falls back; a refusal from the server is an answer to show.
+      if (isHTTPError(e) || !userId) throw e
+      return { list: await listLocalExams(userId, q), local: true }
+    }
+  }
 
   const hasFilters = computed(() => Object.keys(NO_FILTERS).some((key) => query.value[key as keyof ExamFilters]))
 
@@ -28,10 +46,11 @@ export const useExamsStore = defineStore('exams', () => {
     const request = ++latestRequest
     loading.value = true
     try {
-      const list = await fetchExams({ ...query.value })
+      const { list, local } = await fetchList(query.value)
       if (request !== latestRequest) return
       exams.value = list.exams
       total.value = list.total
+      fromDevice.value = local
     } finally {
       if (request === latestRequest) loading.value = false
     }
@@ -53,7 +72,14 @@ export const useExamsStore = defineStore('exams', () => {
   /** Loads one exam for the detail page. */
   async function loadExam(id: string) {
     if (current.value?.id !== id) current.value = null
-    current.value = await fetchExam(id)
+    try {
+      current.value = await fetchExam(id)
+    } catch (e) {
+      const userId = useSessionStore().user?.id
+      const local = !isHTTPError(e) && userId ? await loadLocalExam(id, userId) : undefined
+      if (!local) throw e
+      current.value = local
+    }
   }
 
   /** Sends the open exam for countersignature and keeps the server's new copy. */
@@ -68,5 +94,5 @@ export const useExamsStore = defineStore('exams', () => {
     }
   }
 
-  return { exams, total, query, loading, current, submitting, hasFilters, loadList, setFilters, setPaging, loadExam, submit }
+  return { exams, total, query, loading, current, submitting, fromDevice, hasFilters, loadList, setFilters, setPaging, loadExam, submit }
 })

@@ -95,20 +95,30 @@ describe('the installable app shell in Chromium', () => {
     )
 
     expect(failed).toBe(true)
-    const queued = await page.evaluate(
-      () =>
-        new Promise<number>((resolve, reject) => {
-          const open = indexedDB.open('workbox-background-sync')
-          open.onerror = () => reject(open.error)
-          open.onsuccess = () => {
-            const names = Array.from(open.result.objectStoreNames)
-            if (!names.includes('requests')) return resolve(0)
-            const count = open.result.transaction('requests').objectStore('requests').count()
-            count.onsuccess = () => resolve(count.result)
-          }
-        }),
-    )
-    expect(queued).toBe(1)
+    // The service worker stores the request after answering the page, and the app's own sync may queue one too.
+    const queued = () =>
+      page.evaluate(
+        () =>
+          new Promise<number>((resolve, reject) => {
+            const open = indexedDB.open('workbox-background-sync')
+            open.onerror = () => reject(open.error)
+            open.onsuccess = () => {
+              const database = open.result
+              // Never hold the database open: the service worker may need to upgrade it.
+              database.onversionchange = () => database.close()
+              if (!Array.from(database.objectStoreNames).includes('requests')) {
+                database.close()
+                return resolve(0)
+              }
+              const count = database.transaction('requests').objectStore('requests').count()
+              count.onsuccess = () => {
+                database.close()
+                resolve(count.result)
+              }
+            }
+          }),
+      )
+    await expect.poll(queued, WAIT).toBeGreaterThanOrEqual(1)
     await page.context().close()
   })
 

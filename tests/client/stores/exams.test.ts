@@ -2,7 +2,11 @@ import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { createPinia, setActivePinia } from 'pinia'
 import { useExamsStore } from '@/stores/exams'
 import * as api from '@/api/exams'
+import { db } from '@/db'
+import { useSessionStore } from '@/stores/session'
 import { makeExam, makeExamList } from '../components/exam/make-exam'
+import { httpError } from '../factories/http-error'
+import { makeUser } from '../factories/user'
 
 vi.mock('@/api/exams', () => ({ fetchExams: vi.fn(), fetchExam: vi.fn(), submitExam: vi.fn() }))
 
@@ -24,6 +28,50 @@ describe('exams store', () => {
     expect(api.fetchExams).toHaveBeenCalledWith(expect.objectContaining({ sort: 'examinedAt', order: 'desc', page: 1, pageSize: 25 }))
     expect(store.exams).toEqual(rows)
     expect(store.total).toBe(40)
+  })
+
+  it('with no network, shows the exams kept on this device for the signed-in user, filtered and sorted', async () => {
+    await db.exams.clear()
+    useSessionStore().user = makeUser({ id: 'u-1' })
+    const older = makeExam({ examinedAt: '2026-11-01T08:00:00.000Z', status: 'submitted' })
+    const newer = makeExam({ examinedAt: '2026-11-02T08:00:00.000Z', status: 'submitted' })
+    const draft = makeExam({ examinedAt: '2026-11-03T08:00:00.000Z', status: 'draft' })
+    const someoneElses = makeExam({ examinedAt: '2026-11-04T08:00:00.000Z', status: 'submitted' })
+    await db.exams.bulkPut([
+      ...[older, newer, draft].map((e) => ({ ...e, ownerId: 'u-1' })),
+      { ...someoneElses, ownerId: 'u-2' },
+    ])
+    vi.mocked(api.fetchExams).mockRejectedValue(new TypeError('Failed to fetch'))
+    const store = useExamsStore()
+    store.setFilters({ status: 'submitted' })
+
+    await store.loadList()
+
+    expect(store.fromDevice).toBe(true)
+    expect(store.exams.map((e) => e.id)).toEqual([newer.id, older.id])
+    expect(store.total).toBe(2)
+  })
+
+  it('with no network, opens the copy of an exam kept on this device', async () => {
+    useSessionStore().user = makeUser({ id: 'u-1' })
+    const exam = makeExam()
+    await db.exams.put({ ...exam, ownerId: 'u-1' })
+    vi.mocked(api.fetchExam).mockRejectedValue(new TypeError('Failed to fetch'))
+    const store = useExamsStore()
+
+    await store.loadExam(exam.id)
+
+    expect(store.current?.id).toBe(exam.id)
+  })
+
+  it('when the server refuses, shows the refusal rather than the copies on this device', async () => {
+    useSessionStore().user = makeUser({ id: 'u-1' })
+    vi.mocked(api.fetchExams).mockRejectedValue(httpError(403, 'forbidden'))
+    const store = useExamsStore()
+
+    await expect(store.loadList()).rejects.toThrow()
+
+    expect(store.fromDevice).toBe(false)
   })
 
   it('setting filters replaces the previous ones and returns to the first page', () => {

@@ -9,6 +9,7 @@ import { useSessionStore } from '@/stores/session'
 import * as api from '@/api/exams'
 import * as supervision from '@/api/supervision'
 import { makeExam, makeExamList } from '../components/exam/make-exam'
+import { httpError } from '../factories/http-error'
 import { makeUser } from '../factories/user'
 
 vi.mock('@/api/exams', () => ({ fetchExams: vi.fn(), fetchExam: vi.fn(), submitExam: vi.fn() }))
@@ -108,7 +109,8 @@ describe('ExamLogView', () => {
 
     await wrapper.find('[data-testid="exam-table"] tbody tr').trigger('click')
 
-    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('exam-detail'))
+    // The detail view is a lazy route: its first compile can take more than the default second.
+    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('exam-detail'), { timeout: 10_000 })
     expect(router.currentRoute.value.params.id).toBe(exam.id)
   })
 
@@ -120,12 +122,20 @@ describe('ExamLogView', () => {
     expect(wrapper.find('[data-testid="exam-log-empty"]').text()).toContain('No exams yet')
   })
 
-  it('when the server cannot be reached, shows the load error with a retry', async () => {
+  it('when the server cannot be reached, says it shows the exams kept on this device', async () => {
     vi.mocked(api.fetchExams).mockRejectedValue(new TypeError('Failed to fetch'))
 
     const { wrapper } = await mountLog()
 
-    expect(wrapper.text()).toContain('Cannot reach the server')
+    await vi.waitFor(() => expect(wrapper.find('[data-testid="log-from-device"]').text()).toContain('kept on this device'))
+  })
+
+  it('when the server fails, shows the load error with a retry', async () => {
+    vi.mocked(api.fetchExams).mockRejectedValue(httpError(500, 'internal', 'Something went wrong on the server'))
+
+    const { wrapper } = await mountLog()
+
+    expect(wrapper.text()).toContain('Something went wrong on the server')
     expect(wrapper.find('button').text()).toContain('Retry')
   })
 
