@@ -1,45 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import { formatExamNote } from '#shared/domain/exam-note'
-import { computeEstimate } from '#shared/domain/estimate'
 import { CAUTION_TEXT } from '#shared/domain/interpretation'
-import { ExamFindingsSchema, ExamSchema, type Exam } from '#shared/schemas/exam'
 import type { Signature } from '#shared/schemas/signature'
-
-type ExamFields = Partial<Omit<Exam, 'estimate'>>
-
-/** The worked example of PRODUCT.md §4: vertical h = 4 cm at 45°, ruler, incline-adjusted. */
-function makeExam(overrides: ExamFields = {}): Exam {
-  const fields = {
-    id: '0b6b4a52-5d4e-4f7e-9d57-2f5c8f9d1a11',
-    patientCode: 'SM-0142',
-    teamId: 't-1',
-    teamName: 'Ward 7 North — Cardiology',
-    examinerId: 'u-1',
-    examinerName: 'Dr Sam Whitcombe',
-    examinedAt: '2026-03-14T09:30:00.000Z',
-    notes: '',
-    inclinationDeg: 45,
-    inclinationSource: 'entered',
-    vein: 'right-internal',
-    columnTop: 'seen',
-    heightMethod: 'vertical',
-    heightCm: 4,
-    readingPrecision: 'ruler',
-    offsetModel: 'incline-adjusted',
-    venousSigns: ['not-palpable', 'double-peaked', 'falls-on-inspiration'],
-    rhythm: 'sinus',
-    waveform: { aWave: 'normal', vWave: 'normal', yDescent: 'normal' },
-    respiratory: 'falls-on-inspiration',
-    abdominojugular: { done: false },
-    status: 'draft',
-    version: 1,
-    createdAt: '2026-03-14T09:35:00.000Z',
-    updatedAt: '2026-03-14T09:35:00.000Z',
-    submittedAt: null,
-    ...overrides,
-  }
-  return ExamSchema.parse({ ...fields, estimate: computeEstimate(ExamFindingsSchema.parse(fields)) })
-}
+import { makeApiExam as makeExam } from '../api-exam'
 
 function makeSignature(overrides: Partial<Signature> = {}): Signature {
   return {

@@ -1,0 +1,39 @@
+import { computeEstimate } from '#shared/domain/estimate'
+import { ExamFindingsSchema, ExamSchema, type Exam } from '#shared/schemas/exam'
+
+let serial = 0
+
+/** An ExamSchema-valid exam as the API returns it: the §4 worked example (h = 4 cm at 45°, ruler) unless overridden. */
+export function makeApiExam(overrides: Partial<Omit<Exam, 'estimate'>> = {}): Exam {
+  serial += 1
+  const fields = {
+    id: `0b6b4a52-5d4e-4f7e-9d57-${String(serial).padStart(12, '0')}`,
+    patientCode: 'SM-0142',
+    teamId: 't-1',
+    teamName: 'Ward 7 North — Cardiology',
+    examinerId: 'u-1',
+    examinerName: 'Dr Sam Whitcombe',
+    examinedAt: '2026-03-14T09:30:00.000Z',
+    notes: '',
+    inclinationDeg: 45,
+    inclinationSource: 'entered',
+    vein: 'right-internal',
+    columnTop: 'seen',
+    heightMethod: 'vertical',
+    heightCm: 4,
+    readingPrecision: 'ruler',
+    offsetModel: 'incline-adjusted',
+    venousSigns: ['not-palpable', 'double-peaked', 'falls-on-inspiration'],
+    rhythm: 'sinus',
+    waveform: { aWave: 'normal', vWave: 'normal', yDescent: 'normal' },
+    respiratory: 'falls-on-inspiration',
+    abdominojugular: { done: false },
+    status: 'draft',
+    version: 1,
+    createdAt: '2026-03-14T09:35:00.000Z',
+    updatedAt: '2026-03-14T09:35:00.000Z',
+    submittedAt: null,
+    ...overrides,
+  }
+  return ExamSchema.parse({ ...fields, estimate: computeEstimate(ExamFindingsSchema.parse(fields)) })
+}
