@@ -1,26 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import { formatExamNote } from '#shared/domain/exam-note'
 import { CAUTION_TEXT } from '#shared/domain/interpretation'
-import type { Signature } from '#shared/schemas/signature'
 import { makeApiExam as makeExam } from '../api-exam'
-
-function makeSignature(overrides: Partial<Signature> = {}): Signature {
-  return {
-    id: 'sig-1',
-    examId: '0b6b4a52-5d4e-4f7e-9d57-2f5c8f9d1a11',
-    examVersion: 2,
-    signerId: 'u-9',
-    signerName: 'Dr Tomas Lindqvist',
-    meaning: 'reviewed-agree',
-    signedAt: '2026-07-14T09:30:00.000+01:00',
-    timeZone: 'Europe/London',
-    hash: 'ab'.repeat(32),
-    superseded: false,
-    supersededAt: null,
-    valid: true,
-    ...overrides,
-  }
-}
+import { makeSignature } from '../signature'
 
 describe('formatExamNote', () => {
   it('for the §4 worked example, gives 13.7 cmH₂O, 10.1 mmHg, the band 9.2–18.2 and the model', () => {
