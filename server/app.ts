@@ -4,16 +4,22 @@ import express, { type Express, type NextFunction, type Request, type Response }
 import cookieParser from 'cookie-parser'
 import helmet from 'helmet'
 import type { Logger } from 'pino'
+import { accountAuthRouter, accountsRouter } from './accounts/accounts.routes.ts'
 import { agreementRouter } from './agreement/agreement.routes.ts'
+import { attachmentsRouter } from './attachments/attachments.routes.ts'
 import { auditTrailRouter } from './audit-trail/audit-trail.routes.ts'
 import { authRouter } from './auth/auth.routes.ts'
 import { AppError } from './errors.ts'
 import { examsRouter } from './exams/exams.routes.ts'
+import { exportsRouter } from './exports/exports.routes.ts'
 import type { FakeSmtp } from './mail/fake-smtp.ts'
 import { mailboxRouter } from './mail/mailbox.routes.ts'
 import type { Mailer } from './mail/mailer.ts'
 import { requireAuth, requireRole } from './middleware/auth.ts'
 import { errorHandler } from './middleware/error-handler.ts'
+import { rosterRouter } from './roster/roster.routes.ts'
+import { adminSettingsRouter, settingsRouter } from './settings/settings.routes.ts'
+import { roundsRouter } from './rounds/rounds.routes.ts'
 import { supervisionRouter } from './supervision/supervision.routes.ts'
 import { syncRouter } from './sync/sync.routes.ts'
 import { usersRouter } from './users/users.routes.ts'
@@ -33,6 +39,8 @@ export interface AppDeps {
   mailbox?: Pick<FakeSmtp, 'messages'>
   /** Base of links in e-mails; the request's own origin when omitted. */
   baseUrl?: string
+  /** Where exam photos are written (DATA_DIR/attachments), outside the web root; a temp folder when omitted. */
+  attachmentsDir?: string
 }
 
 function requestLog(log: Logger) {
@@ -71,11 +79,19 @@ export function createApp(deps: AppDeps): Express {
     '/api/auth',
     authRouter({ secret: deps.secret, cookieSecure: deps.cookieSecure ?? true, loginAttempts: deps.loginAttempts ?? 10 }),
   )
+  app.use('/api/auth', accountAuthRouter({ log: deps.log, mailer: deps.mailer, baseUrl: deps.baseUrl }))
   if (deps.mailbox) app.use('/api/mailbox', requireAuth(deps.secret), requireRole('admin'), mailboxRouter(deps.mailbox))
   app.use('/api/agreement', requireAuth(deps.secret), agreementRouter({ secret: deps.secret }))
   app.use('/api/sync', requireAuth(deps.secret), syncRouter({ secret: deps.secret }))
+  app.use('/api/rounds', requireAuth(deps.secret), roundsRouter())
+  app.use('/api/settings', requireAuth(deps.secret), settingsRouter())
+  app.use('/api/admin/settings', requireAuth(deps.secret), requireRole('admin'), adminSettingsRouter())
+  app.use('/api/admin/roster', requireAuth(deps.secret), requireRole('admin'), rosterRouter({ log: deps.log, mailer: deps.mailer, baseUrl: deps.baseUrl }))
+  app.use('/api', attachmentsRouter({ secret: deps.secret, dir: deps.attachmentsDir }))
   const exams = { secret: deps.secret, log: deps.log, mailer: deps.mailer, baseUrl: deps.baseUrl }
   app.use('/api', requireAuth(deps.secret), usersRouter(), examsRouter(exams), supervisionRouter(exams), auditTrailRouter(exams))
+  app.use('/api', requireAuth(deps.secret), exportsRouter({ secret: deps.secret }))
+  app.use('/api', requireAuth(deps.secret), accountsRouter({ mailer: deps.mailer, baseUrl: deps.baseUrl }))
   app.use('/api', () => {
     throw new AppError('not-found', 404, 'No such API route')
   })

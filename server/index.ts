@@ -56,6 +56,7 @@ export async function startServer(config: Config): Promise<RunningServer> {
     mailer,
     mailbox: fakeSmtp,
     baseUrl: config.PUBLIC_URL,
+    attachmentsDir: path.join(config.DATA_DIR, 'attachments'),
   })
   // Pairs every exam once now, so neither the first save nor the first agreement view pays for it.
   void observerTerm().catch((err: unknown) => log.warn({ err }, 'could not precompute the agreement pairs'))

@@ -1,5 +1,5 @@
 import { Op } from 'sequelize'
-import type { AgreementQuery } from '#shared/schemas/agreement'
+import { inclinationBandOf, veinMatches, type AgreementQuery } from '#shared/schemas/agreement'
 import type { User } from '#shared/schemas/user'
 import { AppError } from '../errors.ts'
 import { MembershipModel } from '../models/index.ts'
@@ -46,15 +46,29 @@ export async function pairScopeOf(user: User, query: AgreementQuery): Promise<Pa
 /** The time of a pair is the time of its earlier exam. */
 export const pairTime = (pair: Pair) => Math.min(pair.first.at, pair.second.at)
 
-/** The query's own filters: a team matches an exam filed to it, an examiner either side of the pair. */
+/** The band of the pair's mean inclination (half-open bands, see INCLINATION_BANDS). */
+export const pairInclinationBand = (pair: Pair) => inclinationBandOf((pair.first.inclinationDeg + pair.second.inclinationDeg) / 2)
+
+/**
+ * The query's own filters: a team matches an exam filed to it, an examiner either side of the pair, an inclination
+ * band the pair's mean inclination, a vein both of its exams.
+ */
 export function pairFilter(query: AgreementQuery): (pair: Pair) => boolean {
   const from = query.from ? Date.parse(query.from) : -Infinity
   const to = query.to ? Date.parse(query.to) : Infinity
   if (from > to) throw new AppError('invalid-input', 400, 'Some fields need attention', { to: 'The end of the range is before its start' })
   const team = query.teamId ? new Set([query.teamId]) : null
   const examiner = query.examinerId ? new Set([query.examinerId]) : null
+  const { inclinationBand: band, vein } = query
   return (pair) => {
     const at = pairTime(pair)
-    return at >= from && at <= to && (!team || filedTo(pair, team)) && (!examiner || involves(pair, examiner))
+    return (
+      at >= from &&
+      at <= to &&
+      (!team || filedTo(pair, team)) &&
+      (!examiner || involves(pair, examiner)) &&
+      (!band || pairInclinationBand(pair) === band) &&
+      (!vein || (veinMatches(vein, pair.first.vein) && veinMatches(vein, pair.second.vein)))
+    )
   }
 }

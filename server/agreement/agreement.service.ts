@@ -1,10 +1,12 @@
-import type { AgreementPairList, AgreementPairsQuery, AgreementQuery, AgreementSummary } from '#shared/schemas/agreement'
+import type { AgreementPairList, AgreementPairsQuery, AgreementQuery, AgreementSummary, AgreementTrend } from '#shared/schemas/agreement'
 import type { User } from '#shared/schemas/user'
+import { audit } from '../audit.ts'
 import { pairFilter, pairScopeOf, pairTime } from './agreement-scope.ts'
 import { presentPairs } from './pair-list.ts'
 import type { Pair } from './pairs.ts'
 import { programPairs } from './program-pairs.ts'
 import { summarize } from './summary.ts'
+import { monthlyTrend } from './trend.ts'
 
 export interface AgreementOptions {
   /** The pairing window (§6: a setting, 120 minutes by default). */
@@ -30,7 +32,20 @@ export async function agreementSummary(user: User, query: AgreementQuery, option
   return summarize(pairs, examiners, scope.examinerId)
 }
 
-/** Newest pairs first. */
+/** Bias and limits per calendar month (UTC) over the same pairs as the summary. */
+export async function agreementTrend(user: User, query: AgreementQuery, options: AgreementOptions = {}): Promise<AgreementTrend> {
+  const { pairs } = await pairsFor(user, query, options)
+  return monthlyTrend(pairs)
+}
+
+/** A pairs download is an export (§5): recorded once, on its first page, with the filters and the number of pairs. */
+async function auditExport(user: User, query: AgreementPairsQuery, rows: number) {
+  const { page: _page, pageSize: _pageSize, export: format, ...filters } = query
+  const filter = Object.fromEntries(Object.entries(filters).filter(([, v]) => v !== undefined && v !== ''))
+  await audit({ actorId: user.id, action: 'agreement-pairs-export', entityType: 'export', changes: { format, filter, rows } })
+}
+
+/** Newest pairs first; with `export`, the first page also records the download in the audit trail. */
 export async function listAgreementPairs(
   viewer: AgreementViewer,
   query: AgreementPairsQuery,
@@ -41,5 +56,6 @@ export async function listAgreementPairs(
   const page = newestFirst.slice((query.page - 1) * query.pageSize, query.page * query.pageSize)
   const codeOf = (pair: Pair) => (scope.showsCode(pair) ? pair.first.patientCode : viewer.mask(pair.first.patientCode))
   const presented = await presentPairs(page, examiners, codeOf)
+  if (query.export && query.page === 1) await auditExport(viewer.user, query, pairs.length)
   return { pairs: presented, total: pairs.length, page: query.page, pageSize: query.pageSize }
 }

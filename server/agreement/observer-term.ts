@@ -2,6 +2,7 @@ import type { ObserverTerm } from '#shared/domain/estimate'
 import { DEFAULT_ESTIMATE_SETTINGS } from '#shared/schemas/settings'
 import { blandAltman } from '#shared/stats/index'
 import { pairTime } from './agreement-scope.ts'
+import { onSettingsChange } from '../settings/settings.service.ts'
 import { programPairs } from './program-pairs.ts'
 
 /** §4.4: the local spread replaces the default once the deployment holds this many pairs from the last year. */
@@ -55,3 +56,6 @@ export function invalidateObserverTerm(): void {
   generation += 1
   cached = null
 }
+
+// A new pairing window changes the pairs the term is computed from.
+onSettingsChange(invalidateObserverTerm)

@@ -1,13 +1,18 @@
 import { Op, QueryTypes } from 'sequelize'
+import { VeinSchema, type Vein } from '#shared/schemas/exam'
 import { ExamModel } from '../models/index.ts'
 import { PackedScanner } from './packed-scanner.ts'
 import type { Reading } from './pairs.ts'
 
 const millis = `CAST(round(unixepoch(e.examinedAt, 'subsec') * 1000) AS INTEGER)`
-const MEASURED = `e.status != 'draft' AND e.columnTop = 'seen' AND e.verticalHeightCm IS NOT NULL AND e.cvpCmH2O IS NOT NULL`
+// Calibration-round entries never pair (server/rounds): the round has its own results, and pairing them would show
+// blinded readings before the round closes. Their rowids come from the small partial index exams_round_id.
+const NOT_ROUND = `e.rowid NOT IN (SELECT rowid FROM exams WHERE roundId IS NOT NULL)`
+const MEASURED = `e.status != 'draft' AND e.columnTop = 'seen' AND e.verticalHeightCm IS NOT NULL AND e.cvpCmH2O IS NOT NULL AND ${NOT_ROUND}`
 // The same expression as migration 2026.12.05T09.00.00.agreement-pairs indexes, so SQLite reads it from the index.
 const INDEXED = `concat_ws(char(31), e.patientCode, ${millis}, e.verticalHeightCm, e.cvpCmH2O)`
-const RECORD = `concat_ws(char(31), ${INDEXED}, e.rowid, u.rowid, t.rowid)`
+// Inclination and vein come from the table row, not the index: reading them costs the first build a lookup per exam.
+const RECORD = `concat_ws(char(31), ${INDEXED}, e.vein, e.inclinationDeg, e.rowid, u.rowid, t.rowid)`
 const ORDER = 'e.patientCode, e.examinedAt'
 const FROM = 'FROM exams e JOIN users u ON u.id = e.examinerId JOIN teams t ON t.id = e.teamId'
 
@@ -27,6 +32,10 @@ async function idsByRowid(table: 'users' | 'teams'): Promise<string[]> {
   return ids
 }
 
+// One string per vein rather than a slice of the packed text each, which would keep that text alive with the pairs.
+const VEINS = new Map(VeinSchema.options.map((v) => [v, v]))
+const interned = (vein: string): string => VEINS.get(vein as Vein) ?? vein
+
 /** The readings with an ordinal per patient code; null when the codes are out of order. */
 function unpack(packed: string, examinerIds: string[], teamIds: string[]): Reading[] | null {
   const scan = new PackedScanner(packed)
@@ -43,10 +52,12 @@ function unpack(packed: string, examinerIds: string[], teamIds: string[]): Readi
     const at = scan.number()
     const heightCm = scan.number()
     const cvpCmH2O = scan.number()
+    const vein = interned(scan.text())
+    const inclinationDeg = scan.number()
     const rowid = scan.number()
     const examinerId = examinerIds[scan.number()]!
     const teamId = teamIds[scan.number()]!
-    readings.push({ patient, patientCode, rowid, examinerId, teamId, at, heightCm, cvpCmH2O })
+    readings.push({ patient, patientCode, rowid, examinerId, teamId, at, heightCm, cvpCmH2O, inclinationDeg, vein })
   }
   return readings
 }

@@ -16,6 +16,9 @@ export interface Reading {
   at: number
   heightCm: number
   cvpCmH2O: number
+  /** Trunk inclination and vein, for the agreement filters. */
+  inclinationDeg: number
+  vein: string
 }
 
 /** Two readings of one patient; the difference is first.heightCm − second.heightCm. */

@@ -3,7 +3,8 @@ import { ExamModel } from '../models/index.ts'
 import { loadExaminers, type Examiner } from './examiners.ts'
 import { PairBook } from './pair-book.ts'
 import { changedPatientCodes, countReadings, loadReadings } from './pair-source.ts'
-import { DEFAULT_PAIR_WINDOW_MINUTES, type Pair, type PairingOptions } from './pairs.ts'
+import type { Pair, PairingOptions } from './pairs.ts'
+import { currentSettings } from '../settings/settings.service.ts'
 
 export interface ProgramPairs {
   pairs: readonly Pair[]
@@ -72,9 +73,11 @@ async function refresh(previous: Built | undefined, fingerprint: string, windowM
  * Every pair of the program, with everyone who examined. Dashboards ask again and again with other filters, so the
  * pairs are kept per database and brought up to date on each call: untouched, they are reused; after a few writes
  * only the patients concerned are paired again. Calls queue behind one another, so concurrent ones build once.
+ * The window is the admin's setting (§6) unless the caller names one; pairs built with another window are rebuilt.
  */
-export async function programPairs(windowMinutes = DEFAULT_PAIR_WINDOW_MINUTES): Promise<ProgramPairs> {
+export async function programPairs(requestedWindow?: number): Promise<ProgramPairs> {
   const sequelize = ExamModel.sequelize!
+  const windowMinutes = requestedWindow ?? (await currentSettings()).values.pairWindowMinutes
   // Taken before reading, so a write that lands in between makes the next call look again rather than trust stale pairs.
   const fingerprint = await fingerprintOf(sequelize)
   const previous = (cache.get(sequelize) ?? Promise.resolve(undefined)).catch(() => undefined)

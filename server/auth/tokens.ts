@@ -8,10 +8,11 @@ export const ISSUER = 'plumbline'
 export const AUDIENCE = 'plumbline-api'
 export const ACCESS_TTL_SECONDS = 15 * 60
 
-const ClaimsSchema = z.object({ sub: z.string(), roles: z.array(RoleSchema) })
+// `iat` (seconds) lets requireAuth refuse tokens issued before the account's password last changed.
+const ClaimsSchema = z.object({ sub: z.string(), roles: z.array(RoleSchema), iat: z.number().optional() })
 export type Claims = z.infer<typeof ClaimsSchema>
 
-export function signAccessToken(secret: string, claims: Claims): string {
+export function signAccessToken(secret: string, claims: Pick<Claims, 'sub' | 'roles'>): string {
   return jwt.sign({ roles: claims.roles }, secret, {
     algorithm: 'HS256',
     subject: claims.sub,

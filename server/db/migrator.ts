@@ -5,6 +5,10 @@ import * as exams from './migrations/2026.12.02T10.00.00.exams.ts'
 import * as supervision from './migrations/2026.12.04T09.00.00.supervision.ts'
 import * as agreementPairs from './migrations/2026.12.05T09.00.00.agreement-pairs.ts'
 import * as syncCursor from './migrations/2026.12.06T09.00.00.sync-cursor.ts'
+import * as rounds from './migrations/2026.12.07T09.00.00.rounds.ts'
+import * as accountLinks from './migrations/2026.12.07T10.00.00.account-links.ts'
+import * as settings from './migrations/2026.12.07T11.00.00.settings.ts'
+import * as attachments from './migrations/2026.12.07T12.00.00.attachments.ts'
 
 interface MigrationModule {
   up(q: QueryInterface): Promise<void>
@@ -18,6 +22,10 @@ const migrations: [string, MigrationModule][] = [
   ['2026.12.04T09.00.00.supervision', supervision],
   ['2026.12.05T09.00.00.agreement-pairs', agreementPairs],
   ['2026.12.06T09.00.00.sync-cursor', syncCursor],
+  ['2026.12.07T09.00.00.rounds', rounds],
+  ['2026.12.07T10.00.00.account-links', accountLinks],
+  ['2026.12.07T11.00.00.settings', settings],
+  ['2026.12.07T12.00.00.attachments', attachments],
 ]
 
 export function createMigrator(sequelize: Sequelize) {

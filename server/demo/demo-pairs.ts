@@ -1,10 +1,12 @@
 import { createHash } from 'node:crypto'
 import { Op } from 'sequelize'
-import { computeEstimate } from '#shared/domain/estimate'
 import { ExamInputSchema, type Vein } from '#shared/schemas/exam'
 import { changesBetween, snapshotOf } from '../exams/exam-changes.ts'
 import { columnsOf } from '../exams/exam-record.ts'
+import { invalidateObserverTerm } from '../agreement/observer-term.ts'
 import { AuditEventModel, ExamModel, UserModel } from '../models/index.ts'
+import { estimateWith, type EstimateContext } from '../settings/settings-estimate.ts'
+import { currentSettings } from '../settings/settings.service.ts'
 
 const PAIRS = 150
 const SPAN_DAYS = 120
@@ -76,7 +78,7 @@ function planPair(k: number, random: () => number, now: number): PlannedExam[] {
   return [reading(resident.account, resident.biasCm, residentAt), reading(ATTENDING_OF[resident.team]!, 0, residentAt + gap)]
 }
 
-function columnsFor(plan: PlannedExam, examinerId: string, teamId: string) {
+function columnsFor(plan: PlannedExam, examinerId: string, teamId: string, context: EstimateContext) {
   const input = ExamInputSchema.parse({
     ...plan.findings,
     id: plan.id,
@@ -88,7 +90,7 @@ function columnsFor(plan: PlannedExam, examinerId: string, teamId: string) {
     respiratory: 'falls-on-inspiration',
   })
   const submittedAt = new Date(plan.examinedAt.getTime() + 20 * MINUTE_MS)
-  return { id: plan.id, examinerId, status: 'submitted', version: 2, submittedAt, ...columnsOf(input, computeEstimate(input)) }
+  return { id: plan.id, examinerId, status: 'submitted', version: 2, submittedAt, ...columnsOf(input, estimateWith(input, context)) }
 }
 
 /** The audit entry the exams service writes for a new exam. */
@@ -110,10 +112,15 @@ export async function seedDemoPairs(teamIds: Map<string, string>, now = new Date
   const stored = await ExamModel.findAll({ attributes: ['id'], where: { id: { [Op.in]: plans.map((p) => p.id) } } })
   const existing = new Set(stored.map((e) => e.id))
   const missing = plans.filter((p) => !existing.has(p.id) && userIds.has(p.account) && teamIds.has(p.team))
-  return ExamModel.sequelize!.transaction(async (transaction) => {
-    const values = missing.map((p) => columnsFor(p, userIds.get(p.account)!, teamIds.get(p.team)!))
+  const { values: settings, version: settingsVersion } = await currentSettings()
+  const context = { settings: settings.estimate, settingsVersion }
+  const created = await ExamModel.sequelize!.transaction(async (transaction) => {
+    const values = missing.map((p) => columnsFor(p, userIds.get(p.account)!, teamIds.get(p.team)!, context))
     const rows = await ExamModel.bulkCreate(values, { transaction })
     await AuditEventModel.bulkCreate(rows.map(createdEvent), { transaction })
     return rows.length
   })
+  // The pairs bypass the exams service, which would otherwise drop a σ_observer cached before they existed.
+  if (created > 0) invalidateObserverTerm()
+  return created
 }

@@ -4,6 +4,7 @@ import { hashPassword } from '../auth/passwords.ts'
 import { MembershipModel, TeamModel, UserModel } from '../models/index.ts'
 import { seedDemoExams } from './demo-exams.ts'
 import { seedDemoPairs } from './demo-pairs.ts'
+import { seedDemoRound } from './demo-rounds.ts'
 
 export const DEMO_PASSWORD = 'bedside-demo'
 
@@ -55,5 +56,6 @@ export async function seedDemo(): Promise<{ created: number; exams: number }> {
   }
   const exams = await seedDemoExams(teamIds)
   await seedDemoPairs(teamIds)
+  await seedDemoRound(teamIds)
   return { created, exams }
 }

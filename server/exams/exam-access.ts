@@ -2,6 +2,7 @@ import { createHmac } from 'node:crypto'
 import { Op, type WhereOptions } from 'sequelize'
 import type { User } from '#shared/schemas/user'
 import { MembershipModel, type ExamModel } from '../models/index.ts'
+import { blinded, blindingClause, closedRoundsExamined } from '../rounds/round-blinding.ts'
 
 type Where = WhereOptions<ExamModel>
 
@@ -12,6 +13,10 @@ export interface ExamScope {
   /** Readable only with the code masked: every non-draft of the program, for educators. Null: none. */
   program: Where | null
   showsCode(row: ExamModel): boolean
+  /** What the reader could read if no calibration round were blinded: tells a blinded entry (403) from a stranger's (404). */
+  unblinded?: Where | null
+  /** Entries of closed rounds the reader examined in: readable one by one (not listed, not pulled), with their codes. */
+  roundPeers?: Where | null
 }
 
 const notDraft: Where = { status: { [Op.ne]: 'draft' } }
@@ -30,12 +35,21 @@ export async function scopeOf(user: User): Promise<ExamScope> {
   // Exams filed to their teams, and those their teams' members filed elsewhere (§2: "the residents in their teams").
   if (roles.has('attending'))
     clinical.push({ ...notDraft, [Op.or]: [{ teamId: { [Op.in]: [...teamIds] } }, { examinerId: { [Op.in]: [...colleagues] } }] })
+  // Examiners of a closed calibration round may open each other's entries of it, one by one (server/rounds/round-blinding.ts).
+  const closedRounds = await closedRoundsExamined(user.id)
+  const clinicalWhere: Where | null = clinical.length ? { [Op.or]: clinical } : null
+  const programWhere: Where | null = roles.has('educator') ? notDraft : null
+  // Entries of open calibration rounds are their authors' alone until the round closes (server/rounds/round-blinding.ts).
+  const blind = await blindingClause(user.id)
   return {
-    clinical: clinical.length ? { [Op.or]: clinical } : null,
-    program: roles.has('educator') ? notDraft : null,
+    clinical: blinded(clinicalWhere, blind),
+    program: blinded(programWhere, blind),
+    unblinded: readable({ clinical: clinicalWhere, program: programWhere, showsCode: () => false }),
+    roundPeers: closedRounds.size ? { ...notDraft, roundId: { [Op.in]: [...closedRounds] } } : null,
     showsCode: (row) =>
       (recordsExams && row.examinerId === user.id) ||
-      (roles.has('attending') && row.status !== 'draft' && (teamIds.has(row.teamId) || colleagues.has(row.examinerId))),
+      (roles.has('attending') && row.status !== 'draft' && (teamIds.has(row.teamId) || colleagues.has(row.examinerId))) ||
+      (row.status !== 'draft' && !!row.roundId && closedRounds.has(row.roundId)),
   }
 }
 

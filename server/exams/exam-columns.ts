@@ -22,6 +22,7 @@ export function columnsOf(input: ExamInput, estimate: Estimate) {
     respiratory: input.respiratory,
     abdominojugular: JSON.stringify(input.abdominojugular),
     notes: input.notes,
+    roundId: input.roundId ?? null,
     estimate: JSON.stringify(estimate),
     verticalHeightCm: estimate.heightCm,
     cvpCmH2O: estimate.cvpCmH2O,
@@ -36,6 +37,8 @@ export function storedInput(row: ExamModel): Record<string, unknown> {
     teamId: row.teamId,
     examinedAt: row.examinedAt.toISOString(),
     notes: row.notes,
+    // Only on round entries: the signed content (and so the hash) of every other exam stays as it was.
+    ...(row.roundId ? { roundId: row.roundId } : {}),
     inclinationDeg: row.inclinationDeg,
     inclinationSource: row.inclinationSource,
     vein: row.vein,

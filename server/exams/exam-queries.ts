@@ -5,6 +5,7 @@ import { AppError } from '../errors.ts'
 import { ExamModel } from '../models/index.ts'
 import { readable, scopeOf, type ExamScope } from './exam-access.ts'
 import { present } from './exam-record.ts'
+import { blindedEntryError } from '../rounds/round-blinding.ts'
 
 export interface Viewer {
   user: User
@@ -53,9 +54,9 @@ function codeFor(scope: ExamScope, viewer: Viewer) {
 /** The row if the user may read it, with the scope that says whether they see its patient code; else 404. */
 export async function readableRow(user: User, id: string): Promise<{ row: ExamModel; scope: ExamScope }> {
   const scope = await scopeOf(user)
-  const where = readable(scope)
+  const where = scope.roundPeers ? { [Op.or]: [readable(scope) ?? scope.roundPeers, scope.roundPeers] } : readable(scope)
   const row = where && (await ExamModel.findOne({ where: { [Op.and]: [{ id }, where] } }))
-  if (!row) throw new AppError('exam-not-found', 404, 'No such exam')
+  if (!row) throw (await blindedEntryError(user, id, scope.unblinded ?? null)) ?? new AppError('exam-not-found', 404, 'No such exam')
   return { row, scope }
 }
 

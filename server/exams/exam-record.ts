@@ -54,6 +54,7 @@ function canonical(input: ExamInput): string {
     examinedAt: new Date(input.examinedAt).toISOString(),
     heightCm: input.heightCm ?? null,
     alongNeckCm: input.alongNeckCm ?? null,
+    roundId: input.roundId ?? null,
   })
 }
 

@@ -1,7 +1,6 @@
 import { Router, type Request, type Response } from 'express'
 import { z } from 'zod'
-import { computeEstimate } from '#shared/domain/estimate'
-import { observerTerm } from '../agreement/observer-term.ts'
+import { estimateContext, estimateWith } from '../settings/settings-estimate.ts'
 import { ExamFindingsSchema, ExamInputSchema, ExamListQuerySchema, ExamPatchSchema } from '#shared/schemas/exam'
 import { currentUser, requireRole } from '../middleware/auth.ts'
 import { requestNotifier, type SupervisionRouterOptions } from '../supervision/supervision.routes.ts'
@@ -23,7 +22,7 @@ export function examsRouter(options: SupervisionRouterOptions): Router {
   const authors = requireRole('resident', 'attending')
 
   router.post('/estimate', readers, async (req, res) =>
-    res.json(computeEstimate(ExamFindingsSchema.parse(req.body), { observer: await observerTerm() })),
+    res.json(estimateWith(ExamFindingsSchema.parse(req.body), await estimateContext())),
   )
   router.get('/exams', readers, async (req, res) => res.json(await listExams(viewer(res), ExamListQuerySchema.parse(req.query))))
   router.get('/exams/:id', async (req, res) => res.json(await getExam(viewer(res), idOf(req))))

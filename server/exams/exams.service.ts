@@ -1,4 +1,3 @@
-import { computeEstimate } from '#shared/domain/estimate'
 import { ExamInputSchema, type Exam, type ExamInput, type ExamPatch } from '#shared/schemas/exam'
 import type { User } from '#shared/schemas/user'
 import { audit } from '../audit.ts'
@@ -6,15 +5,17 @@ import { AppError } from '../errors.ts'
 import { ExamModel } from '../models/index.ts'
 import { changesBetween, snapshotOf } from './exam-changes.ts'
 import { columnsOf, presentOwn, sameRecord, storedInput } from './exam-record.ts'
-import { invalidateObserverTerm, observerTerm } from '../agreement/observer-term.ts'
+import { invalidateObserverTerm } from '../agreement/observer-term.ts'
+import { estimateContext, estimateWith } from '../settings/settings-estimate.ts'
+import { roundFieldErrors } from '../rounds/round-membership.ts'
 import { authoredRow, checkBaseVersion, conflict, inTransaction, saveChange } from './exam-writes.ts'
 
 const FUTURE_TOLERANCE_MS = 5 * 60 * 1000
 const EDITABLE = new Set(['draft', 'returned'])
 
 /** Rules the schema cannot know: the author's own teams and the server's clock; checked on new or changed values. */
-function checkAuthorFields(author: User, input: ExamInput, before: ExamModel | null): void {
-  const fields: Record<string, string> = {}
+function checkAuthorFields(author: User, input: ExamInput, before: ExamModel | null, more: Record<string, string> = {}): void {
+  const fields: Record<string, string> = { ...more }
   if (input.teamId !== before?.teamId && !author.teams.some((t) => t.id === input.teamId))
     fields.teamId = 'Choose one of your own teams'
   const examinedAt = new Date(input.examinedAt).getTime()
@@ -25,16 +26,16 @@ function checkAuthorFields(author: User, input: ExamInput, before: ExamModel | n
 
 /** A new draft by the signed-in author. The same id sent again by its author with the same content is an offline retry. */
 export async function createExam(author: User, input: ExamInput): Promise<{ exam: Exam; created: boolean }> {
-  // Read before the write transaction: the local observer spread comes from other exams (§4.4).
-  const observer = await observerTerm()
+  // Read before the write transaction: the settings in force and the local observer spread (§4.4) come from other rows.
+  const context = await estimateContext()
   return inTransaction(async (transaction) => {
     const existing = await ExamModel.findByPk(input.id, { transaction })
     if (existing && existing.examinerId === author.id && sameRecord(existing, input))
       return { exam: await presentOwn(existing), created: false }
     if (existing) throw new AppError('id-taken', 409, 'Another exam already has this id')
-    checkAuthorFields(author, input, null)
+    checkAuthorFields(author, input, null, await roundFieldErrors(author, input, null, transaction))
     const values = { id: input.id, examinerId: author.id, status: 'draft', version: 1, submittedAt: null }
-    const row = await ExamModel.create({ ...values, ...columnsOf(input, computeEstimate(input, { observer })) }, { transaction })
+    const row = await ExamModel.create({ ...values, ...columnsOf(input, estimateWith(input, context)) }, { transaction })
     const changes = changesBetween(null, snapshotOf(row))
     await audit({ actorId: author.id, action: 'exam-create', entityType: 'exam', entityId: row.id, changes }, { transaction })
     return { exam: await presentOwn(row), created: true }
@@ -49,17 +50,19 @@ async function checkEditable(row: ExamModel, baseVersion: number | undefined): P
 
 /** Merges a change into the author's draft and re-validates the whole record; a change that changes nothing keeps the version. */
 export async function updateExam(author: User, id: string, patch: ExamPatch): Promise<Exam> {
-  const observer = await observerTerm()
+  const context = await estimateContext()
   return inTransaction(async (transaction) => {
     const row = await authoredRow(author, id, transaction)
     await checkEditable(row, patch.baseVersion)
     const { baseVersion: _base, ...change } = patch
     const stored = storedInput(row)
     const input = ExamInputSchema.parse({ ...stored, ...change, waveform: { ...(stored.waveform as object), ...change.waveform } })
-    checkAuthorFields(author, input, row)
+    checkAuthorFields(author, input, row, await roundFieldErrors(author, input, row, transaction))
     const before = snapshotOf(row)
-    row.set(columnsOf(input, computeEstimate(input, { observer })))
-    if (!Object.keys(changesBetween(before, snapshotOf(row))).length) return row
+    const storedEstimate = row.estimate
+    row.set(columnsOf(input, estimateWith(input, context)))
+    // Nothing changed: keep the estimate as computed, never re-evaluated under settings saved since.
+    if (!Object.keys(changesBetween(before, snapshotOf(row))).length) return row.set({ estimate: storedEstimate })
     return saveChange(author, row, 'exam-update', transaction, before)
   }).then(presentOwn)
 }

@@ -2,18 +2,27 @@ import type { NextFunction, Request, Response } from 'express'
 import type { Role, User } from '#shared/schemas/user'
 import { verifyAccessToken } from '../auth/tokens.ts'
 import { AppError } from '../errors.ts'
-import { getUser } from '../users/users.service.ts'
+import { getAuthState } from '../users/users.service.ts'
 
-/** Verifies the bearer token and loads the account, which must still be active. */
+/**
+ * Verifies the bearer token and loads the account, which must still be active: a deactivated account's access tokens
+ * (15 minutes at most, ACCESS_TTL_SECONDS) stop working at its next request. A token issued before the password last
+ * changed (a reset link was used) is refused too, so a reset ends every session at once, not only the refresh ones.
+ */
 export function requireAuth(secret: string) {
   return async (req: Request, res: Response, next: NextFunction) => {
     const header = req.get('authorization') ?? ''
     const match = /^Bearer (\S+)$/.exec(header)
     if (!match?.[1]) throw new AppError('not-signed-in', 401, 'Sign in to continue')
     const claims = verifyAccessToken(secret, match[1])
-    const user = await getUser(claims.sub)
-    if (!user?.active) throw new AppError('invalid-token', 401, 'Your session is not valid; sign in again')
-    res.locals.user = user
+    const state = await getAuthState(claims.sub)
+    if (!state?.user.active) throw new AppError('invalid-token', 401, 'Your session is not valid; sign in again')
+    // `iat` has whole seconds: a token from the same second as the change still passes.
+    const changedAt = state.passwordChangedAt ? Math.floor(state.passwordChangedAt.getTime() / 1000) : null
+    if (changedAt !== null && claims.iat !== undefined && claims.iat < changedAt) {
+      throw new AppError('invalid-token', 401, 'Your session is not valid; sign in again')
+    }
+    res.locals.user = state.user
     next()
   }
 }

@@ -29,6 +29,8 @@ export class ExamModel extends Model<InferAttributes<ExamModel>, InferCreationAt
   declare cvpCmH2O: number | null
   declare submittedAt: Date | null
   declare returnComment: CreationOptional<string | null>
+  /** The calibration round this exam is an entry of (§6), if any. */
+  declare roundId: CreationOptional<string | null>
   /** The pull cursor: set by database triggers on every insert and update, never by the app. */
   declare syncSeq: CreationOptional<number | null>
   declare createdAt: CreationOptional<Date>
@@ -67,6 +69,7 @@ export function initExamModel(sequelize: Sequelize): void {
       cvpCmH2O: measure,
       submittedAt: DataTypes.DATE,
       returnComment: DataTypes.TEXT,
+      roundId: DataTypes.STRING,
       syncSeq: DataTypes.INTEGER,
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,

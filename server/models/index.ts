@@ -8,9 +8,13 @@ import {
 } from 'sequelize'
 import { ExamModel, initExamModel } from './exam.ts'
 import { SignatureModel, initSignatureModel } from './signature.ts'
+import { RoundExaminerModel, RoundModel, RoundPatientCodeModel, initRoundModels } from './round.ts'
+import { AccountLinkModel, initAccountLinkModel } from './account-link.ts'
 
 export { ExamModel }
 export { SignatureModel }
+export { RoundModel, RoundPatientCodeModel, RoundExaminerModel }
+export { AccountLinkModel }
 
 export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAttributes<UserModel>> {
   declare id: string
@@ -19,6 +23,9 @@ export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAt
   declare passwordHash: string | null
   declare roles: string
   declare active: CreationOptional<boolean>
+  declare invitedAt: CreationOptional<Date | null>
+  declare deactivatedAt: CreationOptional<Date | null>
+  declare passwordChangedAt: CreationOptional<Date | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 }
@@ -75,6 +82,9 @@ export function initModels(sequelize: Sequelize) {
       passwordHash: DataTypes.STRING,
       roles: DataTypes.TEXT,
       active: DataTypes.BOOLEAN,
+      invitedAt: DataTypes.DATE,
+      deactivatedAt: DataTypes.DATE,
+      passwordChangedAt: DataTypes.DATE,
       ...stamps,
     },
     { sequelize, tableName: 'users' },
@@ -114,5 +124,7 @@ export function initModels(sequelize: Sequelize) {
   )
   initExamModel(sequelize)
   initSignatureModel(sequelize)
+  initRoundModels(sequelize)
+  initAccountLinkModel(sequelize)
   return { UserModel, TeamModel, MembershipModel, RefreshSessionModel, AuditEventModel, ExamModel, SignatureModel }
 }

@@ -3,16 +3,19 @@ import type { SignoffQueue, SignoffQueueQuery } from '#shared/schemas/signoff-qu
 import type { User } from '#shared/schemas/user'
 import { present } from '../exams/exam-record.ts'
 import { ExamModel } from '../models/index.ts'
+import { blinded, blindingClause } from '../rounds/round-blinding.ts'
 
 /** What the attending may countersign: submitted exams filed to their teams, by anyone but themselves. */
-function waitingFor(attending: User): WhereOptions<ExamModel> {
-  return { status: 'submitted', teamId: { [Op.in]: attending.teams.map((t) => t.id) }, examinerId: { [Op.ne]: attending.id } }
+async function waitingFor(attending: User): Promise<WhereOptions<ExamModel>> {
+  const waiting = { status: 'submitted', teamId: { [Op.in]: attending.teams.map((t) => t.id) }, examinerId: { [Op.ne]: attending.id } }
+  // Entries of an open calibration round join the queue once the round closes (blinding, server/rounds).
+  return blinded(waiting, await blindingClause(attending.id))!
 }
 
 /** The attending's sign-off queue, the longest-waiting first (§5). */
 export async function signoffQueue(attending: User, query: SignoffQueueQuery): Promise<SignoffQueue> {
   const { rows, count } = await ExamModel.findAndCountAll({
-    where: waitingFor(attending),
+    where: await waitingFor(attending),
     order: [['submittedAt', 'ASC'], ['id', 'ASC']],
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,
@@ -28,5 +31,5 @@ export async function signoffQueue(attending: User, query: SignoffQueueQuery): P
 }
 
 export async function signoffCount(attending: User): Promise<{ count: number }> {
-  return { count: await ExamModel.count({ where: waitingFor(attending) }) }
+  return { count: await ExamModel.count({ where: await waitingFor(attending) }) }
 }

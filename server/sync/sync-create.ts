@@ -1,6 +1,5 @@
 import type { Transaction } from 'sequelize'
-import { computeEstimate, type ObserverTerm } from '#shared/domain/estimate'
-import { observerTerm } from '../agreement/observer-term.ts'
+import { estimateContext, estimateWith, type EstimateContext } from '../settings/settings-estimate.ts'
 import { ExamInputSchema, type ExamInput } from '#shared/schemas/exam'
 import type { SyncChange, SyncResult } from '#shared/schemas/sync'
 import type { User } from '#shared/schemas/user'
@@ -9,6 +8,7 @@ import { changesBetween, snapshotOf } from '../exams/exam-changes.ts'
 import { columnsOf, presentOwn, sameRecord } from '../exams/exam-record.ts'
 import { inTransaction } from '../exams/exam-writes.ts'
 import { ExamModel } from '../models/index.ts'
+import { roundFieldErrors } from '../rounds/round-membership.ts'
 import { applied, conflictWith, duplicate, fieldsOf, invalid, rejected } from './sync-results.ts'
 
 const FUTURE_TOLERANCE_MS = 5 * 60 * 1000
@@ -22,21 +22,23 @@ function authorFieldErrors(author: User, input: ExamInput): Record<string, strin
 }
 
 /** The answer for one new exam, or its validated input when it is to be stored. */
-async function decide(author: User, change: SyncChange, row: ExamModel | undefined): Promise<SyncResult | ExamInput> {
+async function decide(author: User, change: SyncChange, row: ExamModel | undefined, transaction: Transaction): Promise<SyncResult | ExamInput> {
   const id = change.exam.id
   const parsed = ExamInputSchema.safeParse(change.exam)
   if (!parsed.success) return rejected(id, invalid(fieldsOf(parsed.error)))
   if (row && row.examinerId !== author.id) return rejected(id, { code: 'id-taken', message: 'Another exam already has this id' })
   if (row) return sameRecord(row, parsed.data) ? duplicate(id, row.version) : conflictWith(await presentOwn(row))
-  const fields = authorFieldErrors(author, parsed.data)
-  return fields ? rejected(id, invalid(fields)) : parsed.data
+  // A calibration-round entry must name an open round of the author's, with one of its codes (server/rounds).
+  const roundFields = parsed.data.roundId ? await roundFieldErrors(author, parsed.data, null, transaction) : {}
+  const fields = { ...authorFieldErrors(author, parsed.data), ...roundFields }
+  return Object.keys(fields).length ? rejected(id, invalid(fields)) : parsed.data
 }
 
 /** Stores new drafts in one statement, with one audit event each, as createExam would. */
-async function insertAll(author: User, inputs: ExamInput[], observer: ObserverTerm, transaction: Transaction): Promise<ExamModel[]> {
+async function insertAll(author: User, inputs: ExamInput[], context: EstimateContext, transaction: Transaction): Promise<ExamModel[]> {
   if (!inputs.length) return []
   const values = inputs.map((input) => ({
-    ...columnsOf(input, computeEstimate(input, { observer })),
+    ...columnsOf(input, estimateWith(input, context)),
     id: input.id,
     examinerId: author.id,
     status: 'draft',
@@ -61,18 +63,18 @@ async function insertAll(author: User, inputs: ExamInput[], observer: ObserverTe
  */
 export async function applyCreates(author: User, changes: SyncChange[]): Promise<Map<string, SyncResult>> {
   if (!changes.length) return new Map()
-  const observer = await observerTerm()
+  const context = await estimateContext()
   return inTransaction(async (transaction) => {
     const rows = await ExamModel.findAll({ where: { id: changes.map((c) => c.exam.id) }, transaction })
     const existing = new Map(rows.map((row) => [row.id, row]))
     const results = new Map<string, SyncResult>()
     const fresh: ExamInput[] = []
     for (const change of changes) {
-      const outcome = await decide(author, change, existing.get(change.exam.id))
+      const outcome = await decide(author, change, existing.get(change.exam.id), transaction)
       if ('result' in outcome) results.set(change.exam.id, outcome)
       else fresh.push(outcome)
     }
-    for (const row of await insertAll(author, fresh, observer, transaction)) results.set(row.id, applied(row.id, row.version))
+    for (const row of await insertAll(author, fresh, context, transaction)) results.set(row.id, applied(row.id, row.version))
     return results
   })
 }

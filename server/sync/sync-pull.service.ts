@@ -1,24 +1,59 @@
-import { Op } from 'sequelize'
-import type { SyncPullQuery, SyncPullResponse } from '#shared/schemas/sync'
-import { readable, scopeOf } from '../exams/exam-access.ts'
+import { Op, type WhereOptions } from 'sequelize'
+import type { SyncPullQuery, SyncPullResponse, SyncRemoved } from '#shared/schemas/sync'
+import { readable, scopeOf, type ExamScope } from '../exams/exam-access.ts'
 import type { Viewer } from '../exams/exam-queries.ts'
 import { present } from '../exams/exam-record.ts'
 import { ExamModel } from '../models/index.ts'
 
+type Where = WhereOptions<ExamModel>
+
+/** Exams that left their author once and are drafts again (amended): readers other than the author lost them. */
+const REOPENED: Where = { status: 'draft', submittedAt: { [Op.ne]: null } }
+
+const isReopened = (row: ExamModel) => row.status === 'draft' && row.submittedAt !== null
+
+/**
+ * Whether the viewer read this row before it was reopened, by the exams API's own rules (`exam-access.ts`): the row
+ * as it was when shared. A reader of another team never learns even the id.
+ */
+function formerReader(scope: ExamScope, row: ExamModel): boolean {
+  if (scope.program) return true
+  return scope.showsCode(ExamModel.build({ ...row.get({ plain: true }), status: 'submitted' }))
+}
+
+/** The ids of the rows the viewer may read now; only a reopened row can have come into the page without being readable. */
+async function readableIds(rows: ExamModel[], where: Where): Promise<Set<string>> {
+  const doubtful = rows.filter(isReopened).map((row) => row.id)
+  const ids = new Set(rows.filter((row) => !isReopened(row)).map((row) => row.id))
+  if (!doubtful.length) return ids
+  const found = await ExamModel.findAll({ attributes: ['id'], where: { [Op.and]: [{ id: { [Op.in]: doubtful } }, where] } })
+  for (const row of found) ids.add(row.id)
+  return ids
+}
+
 /**
  * The exams the viewer may read whose last change came after the cursor, in the order the changes were committed,
- * with patient codes as the exams API shows them. The cursor is the server's change counter, never a client clock.
+ * with patient codes as the exams API shows them; and, on the same cursor, the ids of exams the viewer read before
+ * and may no longer read, so the device drops its copy. The cursor is the server's change counter, never a client
+ * clock; each change is in exactly one page, in one of the two lists.
  */
 export async function pullChanges(viewer: Viewer, query: SyncPullQuery): Promise<SyncPullResponse> {
   const scope = await scopeOf(viewer.user)
   const where = readable(scope)
-  if (!where) return { exams: [], cursor: query.cursor, more: false }
+  if (!where) return { exams: [], removed: [], cursor: query.cursor, more: false }
+  // A device at cursor 0 holds nothing pulled, so it has nothing to drop.
+  const wanted = query.cursor > 0 ? { [Op.or]: [where, REOPENED] } : where
   const rows = await ExamModel.findAll({
-    where: { [Op.and]: [{ syncSeq: { [Op.gt]: query.cursor } }, where] },
+    where: { [Op.and]: [{ syncSeq: { [Op.gt]: query.cursor } }, wanted] },
     order: [['syncSeq', 'ASC']],
     limit: query.limit + 1,
   })
   const page = rows.slice(0, query.limit)
-  const exams = await present(page, (row) => (scope.showsCode(row) ? row.patientCode : viewer.mask(row.patientCode)))
-  return { exams, cursor: page.at(-1)?.syncSeq ?? query.cursor, more: rows.length > query.limit }
+  const visible = await readableIds(page, where)
+  const removed: SyncRemoved[] = page
+    .filter((row) => !visible.has(row.id) && formerReader(scope, row))
+    .map((row) => ({ id: row.id, syncSeq: row.syncSeq! }))
+  const shown = page.filter((row) => visible.has(row.id))
+  const exams = await present(shown, (row) => (scope.showsCode(row) ? row.patientCode : viewer.mask(row.patientCode)))
+  return { exams, removed, cursor: page.at(-1)?.syncSeq ?? query.cursor, more: rows.length > query.limit }
 }

@@ -5,18 +5,49 @@ import { CvpCategorySchema, VeinSchema } from './exam.ts'
 const isoTime = z.iso.datetime({ offset: true, message: 'Use an ISO 8601 date-time' })
 const interval = z.tuple([z.number(), z.number()])
 
+/**
+ * Inclination bands of the agreement filter, on half-open intervals of the pair's mean inclination (the mean of its
+ * two exams' trunk inclinations): `0-29` is [0°, 30°), `30-59` is [30°, 60°), `60-90` is [60°, 90°]. The mean puts
+ * every pair in exactly one band, so the bands split the pairs without loss; the two exams of a pair are usually
+ * taken in the same posture.
+ */
+export const INCLINATION_BANDS = ['0-29', '30-59', '60-90'] as const
+export const InclinationBandSchema = z.enum(INCLINATION_BANDS)
+export type InclinationBand = z.infer<typeof InclinationBandSchema>
+
+/** The band of a mean inclination in degrees (see {@link INCLINATION_BANDS}). */
+export function inclinationBandOf(meanDeg: number): InclinationBand {
+  return meanDeg < 30 ? '0-29' : meanDeg < 60 ? '30-59' : '60-90'
+}
+
+/**
+ * The vein filter: one of the exam's veins (§3), or `internal` / `external` for either side. A pair matches only when
+ * both of its exams were read on a matching vein, so mixed-vein pairs appear under no vein filter.
+ */
+export const VeinFilterSchema = z.enum([...VeinSchema.options, 'internal', 'external'])
+export type VeinFilter = z.infer<typeof VeinFilterSchema>
+
+/** Whether an exam's vein matches the vein filter. */
+export function veinMatches(filter: VeinFilter, vein: string): boolean {
+  return filter === 'internal' || filter === 'external' ? vein.endsWith(`-${filter}`) : vein === filter
+}
+
 /** Filters of the agreement views (§6): the time of a pair is the time of its earlier exam. */
 export const AgreementQuerySchema = z.object({
   from: isoTime.optional(),
   to: isoTime.optional(),
   teamId: z.string().min(1).optional(),
   examinerId: z.string().min(1).optional(),
+  inclinationBand: InclinationBandSchema.optional(),
+  vein: VeinFilterSchema.optional(),
 })
 export type AgreementQuery = z.infer<typeof AgreementQuerySchema>
 
 export const AgreementPairsQuerySchema = AgreementQuerySchema.extend({
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(1000).default(50),
+  /** Set by a download: the first page writes the export to the audit trail (§5). */
+  export: z.literal('csv').optional(),
 })
 export type AgreementPairsQuery = z.infer<typeof AgreementPairsQuerySchema>
 
@@ -104,3 +135,21 @@ export const AgreementPairListSchema = z.object({
   pageSize: z.number().int(),
 })
 export type AgreementPairList = z.infer<typeof AgreementPairListSchema>
+
+/**
+ * One calendar month (UTC) of the trend: the Bland–Altman bias, SD and limits of the pairs whose earlier exam falls in
+ * it, differences taken as in the summary. `bias` is null without pairs; `sd` and `loa` are null below 2 pairs.
+ */
+export const MonthAgreementSchema = z.object({
+  /** `YYYY-MM`, UTC. */
+  month: z.string().regex(/^\d{4}-\d{2}$/),
+  n: z.number().int(),
+  bias: z.number().nullable(),
+  sd: z.number().nullable(),
+  loa: interval.nullable(),
+})
+export type MonthAgreement = z.infer<typeof MonthAgreementSchema>
+
+/** Every month from the first pair's to the last pair's, months without pairs included (n 0), oldest first. */
+export const AgreementTrendSchema = z.object({ months: z.array(MonthAgreementSchema) })
+export type AgreementTrend = z.infer<typeof AgreementTrendSchema>

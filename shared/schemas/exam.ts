@@ -113,6 +113,8 @@ const recordFields = {
   teamId: z.string('Choose a team').min(1, 'Choose a team'),
   examinedAt: z.iso.datetime({ offset: true, message: 'Enter the time of the exam' }),
   notes: z.string().max(2000, 'Notes are at most 2,000 characters'),
+  /** The calibration round (§6) this exam is an entry of; null or absent for an ordinary exam. */
+  roundId: z.string().min(1, 'Choose a calibration round').max(64, 'Choose a calibration round').nullish(),
 }
 
 const recordShape = { ...recordFields, notes: recordFields.notes.default(''), ...ExamFindingsShape }
@@ -171,6 +173,8 @@ export const EstimateSchema = z.object({
   mayBeArterial: z.boolean(),
   hints: z.array(HintSchema),
   caution: z.string(),
+  /** The settings version whose thresholds and error terms the server used; absent before versioned settings (= version 1). */
+  settingsVersion: z.number().int().min(1).optional(),
 })
 export type Estimate = z.infer<typeof EstimateSchema>
 

@@ -47,6 +47,22 @@ export const SyncPullQuerySchema = z.object({
 })
 export type SyncPullQuery = z.infer<typeof SyncPullQuerySchema>
 
-/** Exams the reader may see that changed after the cursor, oldest change first; ask again with `cursor` while `more`. */
-export const SyncPullResponseSchema = z.object({ exams: z.array(ExamSchema), cursor: z.number().int(), more: z.boolean() })
+/**
+ * An exam that changed after the cursor and that the reader may no longer read (an attending's copy of an exam its
+ * author amended back to draft): only its id and the change's place in the cursor order, never its content.
+ */
+export const SyncRemovedSchema = z.object({ id: z.string(), syncSeq: z.number().int() })
+export type SyncRemoved = z.infer<typeof SyncRemovedSchema>
+
+/**
+ * Exams the reader may see that changed after the cursor, oldest change first, and the ids of those they no longer
+ * may (to drop from the device); ask again with `cursor` while `more`. Each change is in one page, in one of the two
+ * lists. `removed` is absent from servers older than it.
+ */
+export const SyncPullResponseSchema = z.object({
+  exams: z.array(ExamSchema),
+  removed: z.array(SyncRemovedSchema).optional(),
+  cursor: z.number().int(),
+  more: z.boolean(),
+})
 export type SyncPullResponse = z.infer<typeof SyncPullResponseSchema>

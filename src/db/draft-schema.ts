@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import type { TeamRef } from '#shared/schemas/user'
+import { defaultOffsetModelInUse } from '@/stores/settings'
 import {
   AWaveSchema,
   ColumnTopSchema,
@@ -27,6 +28,8 @@ const venousSigns = z
 /** Every exam field as typed so far: all optional, numbers may be cleared to null. */
 export const DraftFieldsSchema = z.object({
   patientCode: maybe(z.string()),
+  /** The calibration round the exam is an entry of; null or absent for an ordinary exam. */
+  roundId: maybe(z.string().nullable()),
   teamId: maybe(z.string()),
   examinedAt: maybe(z.string()),
   inclinationDeg: maybe(z.number().nullable()),
@@ -77,7 +80,7 @@ export function newDraft(teams: readonly TeamRef[], now = new Date()): DraftRow 
       rhythm: 'unknown',
       heightMethod: 'vertical',
       readingPrecision: 'ruler',
-      offsetModel: 'incline-adjusted',
+      offsetModel: defaultOffsetModelInUse(),
       waveform: { aWave: 'unclear', vWave: 'unclear', yDescent: 'unclear' },
       respiratory: 'not-assessed',
       abdominojugular: { done: false },

@@ -1,4 +1,5 @@
 import Dexie, { type EntityTable } from 'dexie'
+import type { LocalAttachment } from './attachments'
 import type { DraftRow } from './draft-schema'
 import type { LocalExam, MetaRow, OutboxItem } from './sync-schema'
 
@@ -8,6 +9,7 @@ export const db = new Dexie('plumbline') as Dexie & {
   exams: EntityTable<LocalExam, 'id'>
   outbox: EntityTable<OutboxItem, 'seq'>
   meta: EntityTable<MetaRow, 'key'>
+  attachments: EntityTable<LocalAttachment, 'id'>
 }
 
 db.version(1).stores({
@@ -19,4 +21,9 @@ db.version(2).stores({
   exams: 'id, ownerId',
   outbox: '++seq, examId, authorId',
   meta: 'key',
+})
+
+// Photos of the measurement set-up waiting to be sent once their exam is on the server (issue 7).
+db.version(3).stores({
+  attachments: 'id, examId, authorId, state',
 })

@@ -1,6 +1,7 @@
 import { computeEstimate } from '#shared/domain/estimate'
 import type { Exam, ExamInput } from '#shared/schemas/exam'
 import type { User } from '#shared/schemas/user'
+import { estimateSettingsInUse, settingsVersionInUse } from '@/stores/settings'
 import { db } from './index'
 import { cursorKey } from './meta'
 import { queuedFor } from './outbox-queries'
@@ -21,7 +22,7 @@ export function localExamOf(input: ExamInput, author: User, previous?: LocalExam
     teamName: author.teams.find((t) => t.id === input.teamId)?.name ?? previous?.teamName ?? '',
     status: previous?.status ?? 'draft',
     version: previous?.version ?? 0,
-    estimate: computeEstimate(input),
+    estimate: { ...computeEstimate(input, { settings: estimateSettingsInUse() }), settingsVersion: settingsVersionInUse() },
     createdAt: previous?.createdAt ?? now,
     updatedAt: now,
     submittedAt: previous?.submittedAt ?? null,
@@ -37,11 +38,21 @@ export async function loadLocalExam(id: string, ownerId: string): Promise<LocalE
   return parsed.success && parsed.data.ownerId === ownerId ? parsed.data : undefined
 }
 
+/** Drops the owner's read copies of exams they may no longer read, except those with changes still in the outbox. */
+async function dropRemoved(ownerId: string, removedIds: string[]) {
+  if (!removedIds.length) return
+  const queued = await queuedFor(removedIds)
+  const copies = await db.exams.bulkGet(removedIds)
+  const gone = copies.filter((copy) => copy?.ownerId === ownerId && !queued.get(copy.id)?.length).map((copy) => copy!.id)
+  await db.exams.bulkDelete(gone)
+}
+
 /**
  * Stores a pulled page and its cursor together. An exam with changes still in the outbox keeps its local copy;
- * a conflict waiting for the user gets the newer server copy to compare with.
+ * a conflict waiting for the user gets the newer server copy to compare with. Exams the user may no longer read
+ * (`removedIds`) lose their read copy; the user's unsent changes and drafts are never touched.
  */
-export async function storePulled(ownerId: string, exams: Exam[], cursor: number): Promise<void> {
+export async function storePulled(ownerId: string, exams: Exam[], cursor: number, removedIds: string[] = []): Promise<void> {
   await db.transaction('rw', db.exams, db.outbox, db.meta, async () => {
     const queued = await queuedFor(exams.map((e) => e.id))
     const copies: LocalExam[] = []
@@ -52,6 +63,7 @@ export async function storePulled(ownerId: string, exams: Exam[], cursor: number
       if (!items.length) copies.push(plain({ ...exam, ownerId }))
     }
     await db.exams.bulkPut(copies)
+    await dropRemoved(ownerId, removedIds)
     await db.meta.put({ key: cursorKey(ownerId), value: cursor })
   })
 }

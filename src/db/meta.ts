@@ -1,3 +1,4 @@
+import { SettingsVersionSchema, type SettingsVersion } from '#shared/schemas/settings'
 import { UserSchema, type User } from '#shared/schemas/user'
 import { db } from './index'
 
@@ -27,5 +28,17 @@ export async function saveProfile(user: User): Promise<void> {
 
 export async function loadProfile(): Promise<User | null> {
   const parsed = UserSchema.safeParse((await db.meta.get(PROFILE_KEY))?.value)
+  return parsed.success ? parsed.data : null
+}
+
+const SETTINGS_KEY = 'settings'
+
+/** Keeps the settings in force, so estimates on this device use them offline too. */
+export async function saveSettingsCopy(settings: SettingsVersion): Promise<void> {
+  await db.meta.put({ key: SETTINGS_KEY, value: JSON.parse(JSON.stringify(settings)) })
+}
+
+export async function loadSettingsCopy(): Promise<SettingsVersion | null> {
+  const parsed = SettingsVersionSchema.safeParse((await db.meta.get(SETTINGS_KEY))?.value)
   return parsed.success ? parsed.data : null
 }

@@ -74,7 +74,8 @@ export async function outboxCounts(authorId: string): Promise<{ unsynced: number
 }
 
 /** Work that signing out would destroy: every queued change on the device, and unfinished exams with a patient code. */
-export async function unsyncedWorkOnDevice(): Promise<{ changes: number; drafts: number }> {
+export async function unsyncedWorkOnDevice(): Promise<{ changes: number; drafts: number; photos: number }> {
   const drafts = await db.drafts.where('state').equals('editing').filter((row) => !!row.fields?.patientCode).count()
-  return { changes: await db.outbox.count(), drafts }
+  // A photo's row leaves the device only once the server has acknowledged it, so every row is unsent.
+  return { changes: await db.outbox.count(), drafts, photos: await db.attachments.count() }
 }

@@ -15,8 +15,8 @@ function deleteDatabase(name: string): Promise<void> {
 
 /** Deletes everything the app keeps on this device, so no patient code stays on a shared phone (ASVS 8.2.3). */
 export async function wipeLocalData(): Promise<void> {
-  await db.transaction('rw', db.drafts, db.exams, db.outbox, db.meta, async () => {
-    await Promise.all([db.drafts.clear(), db.exams.clear(), db.outbox.clear(), db.meta.clear()])
+  await db.transaction('rw', [db.drafts, db.exams, db.outbox, db.meta, db.attachments], async () => {
+    await Promise.all([db.drafts.clear(), db.exams.clear(), db.outbox.clear(), db.meta.clear(), db.attachments.clear()])
   })
   await deleteDatabase(BACKGROUND_SYNC_DB)
 }

@@ -16,10 +16,13 @@ export const navItems: NavItem[] = [
   { label: 'Record an exam', icon: 'mdi-clipboard-pulse-outline', routeName: 'record', roles: ['resident', 'attending'] },
   { label: 'Exam log', icon: 'mdi-clipboard-text-clock-outline', routeName: 'exams', roles: CLINICAL_ROLES },
   { label: 'Sign-off queue', icon: 'mdi-draw-pen', routeName: 'signoff-queue', roles: ['attending'], badge: 'signoff-count' },
+  { label: 'Agreement', icon: 'mdi-chart-scatter-plot', routeName: 'agreement', roles: CLINICAL_ROLES },
+  { label: 'Calibration rounds', icon: 'mdi-target-account', routeName: 'rounds', roles: CLINICAL_ROLES },
   { label: 'Teams', icon: 'mdi-account-group-outline', routeName: 'teams', roles: CLINICAL_ROLES },
   { label: 'Accounts', icon: 'mdi-shield-account-outline', routeName: 'accounts', roles: ['admin'] },
   { label: 'Audit trail', icon: 'mdi-history', routeName: 'audit-trail', roles: ['admin'] },
   { label: 'Mailbox', icon: 'mdi-email-outline', routeName: 'mailbox', roles: ['admin'] },
+  { label: 'Settings', icon: 'mdi-tune-variant', routeName: 'settings', roles: ['admin'] },
   { label: 'This device', icon: 'mdi-cellphone-cog', routeName: 'device' },
 ]
 

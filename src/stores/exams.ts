@@ -3,14 +3,28 @@ import { computed, ref } from 'vue'
 import { ExamListQuerySchema, type Exam, type ExamListQuery } from '#shared/schemas/exam'
 import { isHTTPError } from 'ky'
 import { fetchExam, fetchExams, submitExam } from '@/api/exams'
-import { listLocalExams } from '@/db/local-exam-list'
+import { listLocalExams, unsentExams, type UnsentState } from '@/db/local-exam-list'
 import { loadLocalExam } from '@/db/local-exams'
+import { loadLastSync } from '@/db/meta'
 import { useSessionStore } from './session'
 
 export type ExamFilters = Pick<ExamListQuery, 'status' | 'patientCode' | 'from' | 'to'>
 export type ExamPaging = Pick<ExamListQuery, 'page' | 'pageSize' | 'sort' | 'order'>
 
 const NO_FILTERS: ExamFilters = { status: undefined, patientCode: undefined, from: undefined, to: undefined }
+
+// A proxy or gateway answering for a server it cannot reach: as good as no network.
+const UNREACHABLE_STATUSES = new Set([502, 503, 504])
+
+/** Whether to fall back on the copies kept on this device: the server was not reached, rather than refusing. */
+function unreachable(e: unknown): boolean {
+  return !isHTTPError(e) || UNREACHABLE_STATUSES.has(e.response.status)
+}
+
+/** The device's outbox must never break the log: without it, rows simply carry no "not yet sent" mark. */
+async function unsentOrNone(userId: string | undefined): Promise<Record<string, UnsentState>> {
+  return userId ? unsentExams(userId).catch(() => ({})) : {}
+}
 
 export const useExamsStore = defineStore('exams', () => {
   /** The page of the log on screen. */
@@ -25,17 +39,21 @@ export const useExamsStore = defineStore('exams', () => {
   const submitting = ref(false)
   /** The log shows the copies kept on this device because the server could not be reached. */
   const fromDevice = ref(false)
+  /** When this device last synced with the server, shown with a log read from the device; null if it never did. */
+  const deviceSyncedAt = ref<string | null>(null)
+  /** The user's exams with changes saved on this device that the server has not acknowledged. */
+  const unsent = ref<Record<string, UnsentState>>({})
   let latestRequest = 0
 
   async function fetchList(q: ExamListQuery) {
     try {
       const list = await fetchExams({ ...q })
-      return { list, local: false }
+      return { list, local: false, syncedAt: null }
     } catch (e) {
       const userId = useSessionStore().user?.id
       // Only a missing network falls back; a refusal from the server is an answer to show.
-      if (isHTTPError(e) || !userId) throw e
-      return { list: await listLocalExams(userId, q), local: true }
+      if (!unreachable(e) || !userId) throw e
+      return { list: await listLocalExams(userId, q), local: true, syncedAt: await loadLastSync(userId) }
     }
   }
 
@@ -45,15 +63,20 @@ export const useExamsStore = defineStore('exams', () => {
   async function loadList() {
     const request = ++latestRequest
     loading.value = true
+    // read alongside the list, but never holding the rows back
+    const marks = unsentOrNone(useSessionStore().user?.id)
     try {
-      const { list, local } = await fetchList(query.value)
+      const { list, local, syncedAt } = await fetchList(query.value)
       if (request !== latestRequest) return
       exams.value = list.exams
       total.value = list.total
       fromDevice.value = local
+      deviceSyncedAt.value = syncedAt
     } finally {
       if (request === latestRequest) loading.value = false
     }
+    const unsentNow = await marks
+    if (request === latestRequest) unsent.value = unsentNow
   }
 
   /** Replaces the filters and goes back to the first page. */
@@ -76,7 +99,7 @@ export const useExamsStore = defineStore('exams', () => {
       current.value = await fetchExam(id)
     } catch (e) {
       const userId = useSessionStore().user?.id
-      const local = !isHTTPError(e) && userId ? await loadLocalExam(id, userId) : undefined
+      const local = unreachable(e) && userId ? await loadLocalExam(id, userId) : undefined
       if (!local) throw e
       current.value = local
     }
@@ -94,5 +117,21 @@ export const useExamsStore = defineStore('exams', () => {
     }
   }
 
-  return { exams, total, query, loading, current, submitting, fromDevice, hasFilters, loadList, setFilters, setPaging, loadExam, submit }
+  return {
+    exams,
+    total,
+    query,
+    loading,
+    current,
+    submitting,
+    fromDevice,
+    deviceSyncedAt,
+    unsent,
+    hasFilters,
+    loadList,
+    setFilters,
+    setPaging,
+    loadExam,
+    submit,
+  }
 })

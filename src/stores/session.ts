@@ -73,12 +73,12 @@ export const useSessionStore = defineStore('session', () => {
   }
 
   /**
-   * Signs out and wipes what this device holds (drafts, exam copies, outbox), so no patient code stays on a shared
+   * Signs out and wipes what this device holds (drafts, exam copies, outbox, photos), so no patient code stays on a shared
    * phone. With work not yet on the server it does nothing and answers that work, unless the user accepted the loss.
    */
   async function signOut(options: { discardUnsynced?: boolean } = {}): Promise<UnsyncedWork | null> {
     const work = await unsyncedWorkOnDevice()
-    if (!options.discardUnsynced && work.changes + work.drafts > 0) return work
+    if (!options.discardUnsynced && work.changes + work.drafts + work.photos > 0) return work
     // Signs out locally even if the server cannot be reached.
     await auth.logout().catch(() => undefined)
     applySession(null)

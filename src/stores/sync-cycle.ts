@@ -1,6 +1,7 @@
 import { SYNC_PUSH_LIMIT } from '#shared/schemas/sync'
 import { readApiError, type ReadableError } from '@/api/client'
 import { pullChanges, pushChanges } from '@/api/sync'
+import { uploadPendingAttachments } from '@/db/attachments'
 import { storePulled } from '@/db/local-exams'
 import { loadCursor } from '@/db/meta'
 import { nextBatch } from '@/db/outbox'
@@ -54,7 +55,7 @@ export async function pullInto(account: SyncAccount): Promise<ReadableError | nu
     for (let more = true; more; ) {
       const page = await pullChanges(cursor, account.token)
       if (!account.isCurrent()) return null
-      await storePulled(account.id, page.exams, page.cursor)
+      await storePulled(account.id, page.exams, page.cursor, page.removed?.map((r) => r.id))
       ;({ cursor, more } = page)
     }
     return null
@@ -65,7 +66,8 @@ export async function pullInto(account: SyncAccount): Promise<ReadableError | nu
 
 /** Push, then pull: the pull then brings the server's copies of what was just accepted. */
 export async function syncAccount(account: SyncAccount): Promise<ReadableError | null> {
-  return (await pushOutbox(account)) ?? (await pullInto(account))
+  // Photos follow once their exam is on the server; a refused one stays on the device (issue 7).
+  return (await pushOutbox(account)) ?? (await pullInto(account)) ?? (await uploadPendingAttachments(account))
 }
 
 const SIGNED_OUT: ReadableError = { status: 401, code: 'not-signed-in', message: 'Sign in again to send your exams.', fields: {} }

@@ -8,6 +8,8 @@ const RESIDENT = 'resident@saltmarsh.test'
 let server: Awaited<ReturnType<typeof startDemoServer>>
 let browser: Browser
 let examId: string
+/** The band the server stored, as the log prints it: with the demo's pairs σ_observer is local (§4.4), not the default. */
+let band: string
 const patientCode = `SM-LOG-${randomUUID().slice(0, 6).toUpperCase()}`
 
 async function apiAs(email: string) {
@@ -39,7 +41,9 @@ async function createWorkedExample() {
   }
   const response = await fetch(`${server.url}/api/exams`, { method: 'POST', headers, body: JSON.stringify(body) })
   expect(response.status).toBe(201)
-  return body.id
+  const { estimate } = (await response.json()) as { estimate: { bandCmH2O: [number, number]; observerSource: string } }
+  expect(estimate.observerSource).toBe('local')
+  return { id: body.id, band: estimate.bandCmH2O.map((v) => v.toFixed(1)).join('–') }
 }
 
 async function signedInPage(context: BrowserContext) {
@@ -52,7 +56,9 @@ async function signedInPage(context: BrowserContext) {
 beforeAll(async () => {
   server = await startDemoServer()
   browser = await launchChromium()
-  examId = await createWorkedExample()
+  const created = await createWorkedExample()
+  examId = created.id
+  band = created.band
 })
 
 afterAll(async () => {
@@ -71,7 +77,7 @@ describe('the exam log in Chromium', () => {
     await page.getByTestId('filter-patient').locator('input').press('Enter')
     const row = page.getByTestId('exam-table').locator('tbody tr', { hasText: patientCode })
     await expect.poll(() => row.isVisible()).toBe(true)
-    expect(await row.textContent()).toContain('9.2–18.2')
+    expect(await row.textContent()).toContain(band)
     await row.click()
 
     await expect.poll(() => new URL(page.url()).pathname).toBe(`/exams/${examId}`)
@@ -92,7 +98,7 @@ describe('the exam log in Chromium', () => {
     const row = page.getByTestId('exam-table').locator('tbody tr', { hasText: patientCode })
     await expect.poll(() => row.isVisible()).toBe(true)
 
-    expect(await row.textContent()).toContain('13.7 (9.2–18.2)')
+    expect(await row.textContent()).toContain(`13.7 (${band})`)
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(360)
     await context.close()
   })

@@ -1,12 +1,13 @@
 import { ExamFindingsSchema, ExamInputSchema, type Estimate, type ExamFindings, type ExamInput } from '#shared/schemas/exam'
 import { computeEstimate } from '#shared/domain/estimate'
 import type { DraftFields, DraftRow } from '@/db/draft-schema'
+import { estimateSettingsInUse } from '@/stores/settings'
 
 type FieldName = keyof DraftFields
 
 /** The flow's steps in order, each with the record fields it asks for. */
 export const BEDSIDE_STEPS: readonly { title: string; fields: readonly FieldName[] }[] = [
-  { title: 'Patient and position', fields: ['patientCode', 'teamId', 'examinedAt', 'inclinationDeg', 'inclinationSource', 'vein'] },
+  { title: 'Patient and position', fields: ['roundId', 'patientCode', 'teamId', 'examinedAt', 'inclinationDeg', 'inclinationSource', 'vein'] },
   { title: 'Pulsation', fields: ['venousSigns', 'rhythm'] },
   { title: 'Height', fields: ['columnTop', 'heightMethod', 'heightCm', 'alongNeckCm', 'readingPrecision'] },
   { title: 'Waveform and manoeuvres', fields: ['waveform', 'respiratory', 'abdominojugular', 'notes'] },
@@ -80,8 +81,8 @@ export function draftFindings(row: Pick<DraftRow, 'id' | 'fields'>): ExamFinding
   return result.success ? result.data : null
 }
 
-/** The live estimate of a draft, or null while the findings are incomplete. */
+/** The live estimate of a draft under the settings in use, or null while the findings are incomplete. */
 export function liveEstimate(row: Pick<DraftRow, 'id' | 'fields'>): Estimate | null {
   const findings = draftFindings(row)
-  return findings ? computeEstimate(findings) : null
+  return findings ? computeEstimate(findings, { settings: estimateSettingsInUse() }) : null
 }

@@ -1,4 +1,5 @@
 import type { Bound, CvpCategory, Estimate, OffsetModel } from '#shared/schemas/exam'
+import { DEFAULT_ESTIMATE_SETTINGS, type EstimateSettings } from '#shared/schemas/settings'
 
 type Band = [number | null, number | null] | null
 
@@ -25,6 +26,17 @@ export const BOUND_WORDING: Record<Bound, { prefix: string; explanation: string 
 }
 
 export const CATEGORY_LABELS: Record<CvpCategory, string> = { low: 'Low CVP (< 5)', normal: 'Normal CVP (5–10)', high: 'High CVP (> 10)' }
+
+/** A category with the limits of the settings it was judged by. */
+export function categoryLabel(category: CvpCategory, settings: EstimateSettings = DEFAULT_ESTIMATE_SETTINGS): string {
+  const [low, high] = [formatLimit(settings.lowBelowCmH2O), formatLimit(settings.highAboveCmH2O)]
+  return { low: `Low CVP (< ${low})`, normal: `Normal CVP (${low}–${high})`, high: `High CVP (> ${high})` }[category]
+}
+
+/** A threshold as written in labels: whole numbers without a decimal. */
+export function formatLimit(value: number): string {
+  return Number.isInteger(value) ? String(value) : formatNumber(value)
+}
 
 export const MODEL_LABELS: Record<OffsetModel, string> = {
   'incline-adjusted': 'Incline-adjusted offset (Seth 2002)',

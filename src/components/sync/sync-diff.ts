@@ -22,6 +22,7 @@ const LABELS: Record<Field, string> = {
   respiratory: 'With respiration',
   abdominojugular: 'Abdominojugular test',
   notes: 'Notes',
+  roundId: 'Calibration round',
 }
 
 /** One field as each side has it, in words. */

@@ -35,6 +35,26 @@ describe('exams, conflicts and sync state on this device', () => {
     expect(await loadCursor('u-2')).toBe(0)
   })
 
+  it('a pulled removal drops only the owner’s read copy: not another account’s, not one with unsent changes, never a draft', async () => {
+    const pending = await save()
+    const mine = makeExam({ status: 'submitted' })
+    const theirs = makeExam({ status: 'submitted' })
+    await db.exams.bulkPut([
+      { ...mine, ownerId: 'u-1' },
+      { ...theirs, ownerId: 'u-2' },
+    ])
+    const draftsBefore = await db.drafts.count()
+
+    await storePulled('u-1', [], 51, [mine.id, theirs.id, pending.id, 'never-held'])
+
+    expect(await db.exams.get(mine.id)).toBeUndefined()
+    expect(await db.exams.get(theirs.id)).toMatchObject({ ownerId: 'u-2' })
+    expect(await db.exams.get(pending.id)).toMatchObject({ ownerId: 'u-1' })
+    expect(await queued()).toMatchObject([{ examId: pending.id, state: 'pending' }])
+    expect(await db.drafts.count()).toBe(draftsBefore)
+    expect(await loadCursor('u-1')).toBe(51)
+  })
+
   it('a pulled newer server copy replaces the one a conflict compares with', async () => {
     const { input } = await inConflictWith({})
 
@@ -106,6 +126,6 @@ describe('exams, conflicts and sync state on this device', () => {
 
     expect((await loadDraft('from-v1'))?.fields.patientCode).toBe('SM-0007')
     expect(await db.outbox.count()).toBe(0)
-    expect(db.verno).toBe(2)
+    expect(db.verno).toBe(3)
   })
 })

@@ -19,7 +19,7 @@ export async function save(input: ExamInput = examInput(), author: User = AUTHOR
 }
 
 export async function clearDevice() {
-  await Promise.all([db.drafts.clear(), db.exams.clear(), db.outbox.clear(), db.meta.clear()])
+  await Promise.all([db.drafts.clear(), db.exams.clear(), db.outbox.clear(), db.meta.clear(), db.attachments.clear()])
 }
 
 export const queued = () => db.outbox.orderBy('seq').toArray()

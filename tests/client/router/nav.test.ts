@@ -1,6 +1,6 @@
-import { beforeEach, describe, expect, it, vi } from 'vitest'
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { defineComponent, h } from 'vue'
-import { mount } from '@vue/test-utils'
+import { mount, type VueWrapper } from '@vue/test-utils'
 import { createPinia, setActivePinia } from 'pinia'
 import { createMemoryHistory, createRouter } from 'vue-router'
 import { createVuetify } from 'vuetify'
@@ -15,12 +15,17 @@ import type { Role } from '#shared/schemas/user'
 
 vi.mock('@/api/supervision')
 
+// Drawers left mounted would keep asking for the sign-off count during later tests.
+const mounted: VueWrapper[] = []
+
 function mountDrawerFor(roles: Role[]) {
   const session = useSessionStore()
   session.user = makeUser({ roles })
   const router = createRouter({ history: createMemoryHistory(), routes })
   const Host = defineComponent({ render: () => h(VApp, () => h(TheNavDrawer, { modelValue: true })) })
-  return mount(Host, { global: { plugins: [createVuetify(), router] } })
+  const wrapper = mount(Host, { global: { plugins: [createVuetify(), router] } })
+  mounted.push(wrapper)
+  return wrapper
 }
 
 describe('navigation by role', () => {
@@ -28,22 +33,26 @@ describe('navigation by role', () => {
     setActivePinia(createPinia())
   })
 
-  it('a resident sees home, recording, the exam log and teams but not accounts', () => {
+  afterEach(() => {
+    for (const wrapper of mounted.splice(0)) wrapper.unmount()
+  })
+
+  it('a resident sees home, recording, the exam log, agreement, rounds and teams but not accounts', () => {
     const names = navItemsFor(['resident']).map((item) => item.routeName)
 
-    expect(names).toEqual(['home', 'record', 'exams', 'teams', 'device'])
+    expect(names).toEqual(['home', 'record', 'exams', 'agreement', 'rounds', 'teams', 'device'])
   })
 
   it('an educator reads the exam log but is not offered recording', () => {
     const names = navItemsFor(['educator']).map((item) => item.routeName)
 
-    expect(names).toEqual(['home', 'exams', 'teams', 'device'])
+    expect(names).toEqual(['home', 'exams', 'agreement', 'rounds', 'teams', 'device'])
   })
 
-  it('an admin sees accounts, the audit trail and the mailbox but not teams', () => {
+  it('an admin sees accounts, the audit trail, the mailbox and the settings but not teams', () => {
     const names = navItemsFor(['admin']).map((item) => item.routeName)
 
-    expect(names).toEqual(['home', 'accounts', 'audit-trail', 'mailbox', 'device'])
+    expect(names).toEqual(['home', 'accounts', 'audit-trail', 'mailbox', 'settings', 'device'])
   })
 
   it('an attending is offered the sign-off queue; a resident is not', () => {

@@ -3,10 +3,13 @@ import { createPinia, setActivePinia } from 'pinia'
 import { useExamsStore } from '@/stores/exams'
 import * as api from '@/api/exams'
 import { db } from '@/db'
+import { saveLastSync } from '@/db/meta'
+import { settleResults } from '@/db/outbox-settle'
 import { useSessionStore } from '@/stores/session'
 import { makeExam, makeExamList } from '../components/exam/make-exam'
 import { httpError } from '../factories/http-error'
 import { makeUser } from '../factories/user'
+import { clearDevice, examInput, queued, save } from '../db/outbox-factory'
 
 vi.mock('@/api/exams', () => ({ fetchExams: vi.fn(), fetchExam: vi.fn(), submitExam: vi.fn() }))
 
@@ -50,6 +53,97 @@ describe('exams store', () => {
     expect(store.fromDevice).toBe(true)
     expect(store.exams.map((e) => e.id)).toEqual([newer.id, older.id])
     expect(store.total).toBe(2)
+  })
+
+  it('with no network, lists the exams saved here and not yet sent, marked so, with when the device last synced', async () => {
+    await clearDevice()
+    useSessionStore().user = makeUser({ id: 'u-1' })
+    const pulled = makeExam({ examinedAt: '2026-03-10T08:00:00.000Z', status: 'countersigned' })
+    await db.exams.put({ ...pulled, ownerId: 'u-1' })
+    const unsent = await save(examInput({ examinedAt: '2026-03-14T09:30:00.000Z' }))
+    await saveLastSync('u-1', '2026-03-13T18:00:00.000Z')
+    vi.mocked(api.fetchExams).mockRejectedValue(new TypeError('Failed to fetch'))
+    const store = useExamsStore()
+
+    await store.loadList()
+
+    expect(store.fromDevice).toBe(true)
+    expect(store.exams.map((e) => [e.id, e.status])).toEqual([
+      [unsent.id, 'draft'],
+      [pulled.id, 'countersigned'],
+    ])
+    expect(store.unsent).toEqual({ [unsent.id]: 'pending' })
+    expect(store.deviceSyncedAt).toBe('2026-03-13T18:00:00.000Z')
+  })
+
+  it('with no network, marks an exam whose change the server refused as needing attention, and filters device copies by status', async () => {
+    await clearDevice()
+    useSessionStore().user = makeUser({ id: 'u-1' })
+    const refused = await save()
+    const waiting = await save()
+    await settleResults(await queued().then((items) => items.filter((i) => i.examId === refused.id)), [
+      { id: refused.id, result: 'rejected', error: { code: 'invalid-input', message: 'Some fields need attention' } },
+    ])
+    await db.exams.put({ ...makeExam({ status: 'submitted' }), ownerId: 'u-1' })
+    vi.mocked(api.fetchExams).mockRejectedValue(new TypeError('Failed to fetch'))
+    const store = useExamsStore()
+    store.setFilters({ status: 'draft' })
+
+    await store.loadList()
+
+    expect(store.exams.map((e) => e.id).sort()).toEqual([refused.id, waiting.id].sort())
+    expect(store.total).toBe(2)
+    expect(store.unsent).toEqual({ [refused.id]: 'attention', [waiting.id]: 'pending' })
+    expect(store.deviceSyncedAt).toBeNull()
+  })
+
+  it('with no network, sorting device copies by height puts exams without a height last either way', async () => {
+    await clearDevice()
+    useSessionStore().user = makeUser({ id: 'u-1' })
+    const low = makeExam({ heightCm: 2 })
+    const high = makeExam({ heightCm: 6 })
+    const unseen = makeExam({ columnTop: 'not-assessable', heightCm: null })
+    await db.exams.bulkPut([unseen, high, low].map((e) => ({ ...e, ownerId: 'u-1' })))
+    vi.mocked(api.fetchExams).mockRejectedValue(new TypeError('Failed to fetch'))
+    const store = useExamsStore()
+    const order = async (direction: 'asc' | 'desc') => {
+      store.setPaging({ page: 1, pageSize: 25, sort: 'heightCm', order: direction })
+      await store.loadList()
+      return store.exams.map((e) => e.id)
+    }
+
+    expect(unseen.estimate.heightCm).toBeNull()
+    expect(await order('asc')).toEqual([low.id, high.id, unseen.id])
+    expect(await order('desc')).toEqual([high.id, low.id, unseen.id])
+  })
+
+  it('when a gateway answers 503 for the unreachable server, falls back to the copies on this device', async () => {
+    await clearDevice()
+    useSessionStore().user = makeUser({ id: 'u-1' })
+    const kept = makeExam()
+    await db.exams.put({ ...kept, ownerId: 'u-1' })
+    vi.mocked(api.fetchExams).mockRejectedValue(httpError(503, 'unavailable', 'Service unavailable'))
+    const store = useExamsStore()
+
+    await store.loadList()
+
+    expect(store.fromDevice).toBe(true)
+    expect(store.exams.map((e) => e.id)).toEqual([kept.id])
+  })
+
+  it('online, marks the server’s rows whose later changes are still waiting on this device', async () => {
+    await clearDevice()
+    useSessionStore().user = makeUser({ id: 'u-1' })
+    const edited = await save()
+    const other = makeExam()
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam({ id: edited.id }), other]))
+    const store = useExamsStore()
+
+    await store.loadList()
+
+    expect(store.fromDevice).toBe(false)
+    expect(store.unsent).toEqual({ [edited.id]: 'pending' })
+    expect(store.deviceSyncedAt).toBeNull()
   })
 
   it('with no network, opens the copy of an exam kept on this device', async () => {

@@ -47,7 +47,7 @@ export async function startSyncServer() {
     await new Promise((resolve) => server.close(resolve))
     await sequelize.close()
   }
-  return { faults, clientTimeout, close }
+  return { base, faults, clientTimeout, close }
 }
 
 /** A resident on a team of their own, as the client's session holds them, with a valid access token. */

@@ -1,3 +1,4 @@
+import '../attachments/node-file-apis'
 import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { createPinia, setActivePinia } from 'pinia'
 import { HTTPError, type NormalizedOptions } from 'ky'
@@ -39,7 +40,7 @@ describe('signing out on a shared phone', () => {
 
     const blocked = await session.signOut()
 
-    expect(blocked).toEqual({ changes: 1, drafts: 0 })
+    expect(blocked).toEqual({ changes: 1, drafts: 0, photos: 0 })
     expect(session.signedIn).toBe(true)
     expect(await db.outbox.count()).toBe(1)
     expect(auth.logout).not.toHaveBeenCalled()
@@ -52,7 +53,21 @@ describe('signing out on a shared phone', () => {
 
     const blocked = await session.signOut()
 
-    expect(blocked).toEqual({ changes: 0, drafts: 1 })
+    expect(blocked).toEqual({ changes: 0, drafts: 1, photos: 0 })
+  })
+
+  it('counts a photo still waiting on the device as work', async () => {
+    await db.attachments.put({
+      id: 'photo-1', examId: 'exam-1', authorId: 'u-1', blob: new Blob([new Uint8Array([0xff, 0xd8, 0xff])], { type: 'image/jpeg' }),
+      mime: 'image/jpeg', name: 'neck.jpg', size: 3, consent: true, state: 'pending', attempts: 0, lastError: null,
+      createdAt: '2026-12-02T09:00:00.000Z',
+    })
+    const session = signedIn()
+
+    const blocked = await session.signOut()
+
+    expect(blocked).toEqual({ changes: 0, drafts: 0, photos: 1 })
+    expect(await db.attachments.count()).toBe(1)
   })
 
   it('once the user accepts losing the work, signs out and wipes the device', async () => {

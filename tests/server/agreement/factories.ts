@@ -1,6 +1,6 @@
 import request from 'supertest'
 import { computeEstimate } from '#shared/domain/estimate'
-import { AgreementPairListSchema, AgreementSummarySchema } from '#shared/schemas/agreement'
+import { AgreementPairListSchema, AgreementSummarySchema, AgreementTrendSchema } from '#shared/schemas/agreement'
 import { ExamInputSchema, type ExamInputRaw } from '#shared/schemas/exam'
 import { columnsOf } from '../../../server/exams/exam-record.ts'
 import { ExamModel } from '../../../server/models/index.ts'
@@ -40,4 +40,9 @@ export async function summaryAs(app: App, auth: string, query: Record<string, st
 export async function pairsAs(app: App, auth: string, query: Record<string, string | number> = {}) {
   const res = await request(app).get('/api/agreement/pairs').set('Authorization', auth).query(query)
   return { res, list: res.status === 200 ? AgreementPairListSchema.parse(res.body) : undefined }
+}
+
+export async function trendAs(app: App, auth: string, query: Record<string, string> = {}) {
+  const res = await request(app).get('/api/agreement/trend').set('Authorization', auth).query(query)
+  return { res, trend: res.status === 200 ? AgreementTrendSchema.parse(res.body) : undefined }
 }

@@ -12,6 +12,8 @@ const reading = (examinerId: string, minutes: number, patient = 0): Reading => (
   at: minutes * MINUTE,
   heightCm: 4,
   cvpCmH2O: 13.7,
+  inclinationDeg: 45,
+  vein: 'right-internal',
 })
 const options = { windowMinutes: 120, isAttending: (id: string) => id.startsWith('attending') }
 const examiners = (pairs: ReturnType<typeof pairReadings>) => pairs.map((p) => [p.first.examinerId, p.second.examinerId])

@@ -115,7 +115,7 @@ describe('GET /api/sync/pull', () => {
 
     const page = await pullAll(resident.auth, cursor)
 
-    expect(page).toEqual({ exams: [], cursor, more: false })
+    expect(page).toEqual({ exams: [], removed: [], cursor, more: false })
   })
 
   it('answers 400 to a page larger than 500 and 403 to an admin', async () => {

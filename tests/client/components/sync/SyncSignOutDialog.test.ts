@@ -17,7 +17,7 @@ let pinia: Pinia
 async function openDialog() {
   Object.assign(useSessionStore(), { user: makeUser({ id: 'u-1' }), token: 'token' })
   const wrapper = mount(SyncSignOutDialog, {
-    props: { modelValue: true, work: { changes: 1, drafts: 0 } },
+    props: { modelValue: true, work: { changes: 1, drafts: 0, photos: 0 } },
     attachTo: document.body,
     global: { plugins: [createVuetify(), pinia] },
   })

@@ -1,0 +1,78 @@
+import type { Transaction } from 'sequelize'
+import { audit } from '../audit.ts'
+import { AppError } from '../errors.ts'
+import { invitation } from '../mail/account-templates.ts'
+import type { Mailer } from '../mail/mailer.ts'
+import { UserModel } from '../models/index.ts'
+import { issueLink } from './account-links.ts'
+
+export interface AccountMail {
+  mailer?: Mailer
+  /** Where users reach the app; links in e-mails are built on it. */
+  baseUrl?: string
+}
+
+// Set by the accounts router when the app is built, so a caller without its own mailer (e.g. the roster import)
+// still sends through the app's. An explicit `mailer`/`baseUrl` always wins.
+let defaults: AccountMail = {}
+
+export function setAccountMailDefaults(mail: AccountMail): void {
+  defaults = { ...mail }
+}
+
+export function accountMailDefaults(): AccountMail {
+  return defaults
+}
+
+const FALLBACK_BASE_URL = 'http://localhost:3000'
+
+export interface SendInvitationOptions {
+  userId: string
+  /** The admin sending it; named in the e-mail and the audit trail. */
+  invitedBy: string
+  mailer?: Mailer
+  baseUrl?: string
+  /** When given, the link is written inside it and the e-mail leaves only after it commits. */
+  transaction?: Transaction
+}
+
+/**
+ * Issues a 7-day, single-use invitation link for an account that has no password yet and e-mails it; any earlier
+ * unused invitation link of the account stops working. Stamps `invitedAt` and appends an `invitation-sent` event.
+ * Refuses (409) an account that already chose a password or is deactivated. Without any mailer (API tests without
+ * one) the link is still issued and audited, but nothing is sent.
+ */
+export async function sendInvitation(opts: SendInvitationOptions): Promise<void> {
+  const { userId, invitedBy, transaction } = opts
+  const mailer = opts.mailer ?? defaults.mailer
+  const baseUrl = opts.baseUrl ?? defaults.baseUrl ?? process.env.PUBLIC_URL ?? FALLBACK_BASE_URL
+  const user = await UserModel.findByPk(userId, { transaction })
+  if (!user) throw new AppError('not-found', 404, 'No such account')
+  if (!user.active) throw new AppError('account-deactivated', 409, 'This account is deactivated; reactivate it first')
+  if (user.passwordHash) throw new AppError('already-set-up', 409, 'This person has already chosen a password')
+  const inviter = await UserModel.findByPk(invitedBy, { transaction })
+  const link = await issueLink(user.id, 'invitation', invitedBy, transaction)
+  user.invitedAt = new Date()
+  await user.save({ transaction })
+  await audit(
+    {
+      actorId: invitedBy,
+      action: 'invitation-sent',
+      entityType: 'user',
+      entityId: user.id,
+      changes: { email: user.email, expiresAt: link.expiresAt.toISOString() },
+    },
+    { transaction },
+  )
+  if (!mailer) return
+  const message = invitation({
+    baseUrl,
+    to: user.email,
+    token: link.token,
+    expiresAt: link.expiresAt,
+    inviterName: inviter?.displayName ?? 'Your Plumbline administrator',
+    displayName: user.displayName,
+  })
+  if (transaction) transaction.afterCommit(() => mailer.send(message))
+  else mailer.send(message)
+}

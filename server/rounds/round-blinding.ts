@@ -1,0 +1,57 @@
+import { Op, type WhereOptions } from 'sequelize'
+import type { User } from '#shared/schemas/user'
+import { AppError } from '../errors.ts'
+import { ExamModel, RoundExaminerModel, RoundModel } from '../models/index.ts'
+
+type Where = WhereOptions<ExamModel>
+
+/**
+ * Blinding of calibration rounds (§6): while a round is open, its entries are readable by their author only — not by
+ * the other examiners, not by the author's attendings, not by educators (the round's educator follows progress on
+ * the round itself, without values). The clause is added to every exam scope (lists, single reads, sync pull).
+ * Null when no round is open, so the usual queries stay as they are.
+ */
+export async function blindingClause(userId: string): Promise<Where | null> {
+  const open = await RoundModel.findAll({ attributes: ['id'], where: { status: 'open' }, raw: true })
+  if (!open.length) return null
+  return { [Op.or]: [{ roundId: null }, { roundId: { [Op.notIn]: open.map((r) => r.id) } }, { examinerId: userId }] }
+}
+
+/**
+ * The closed rounds the user examined in: once a round closes, its examiners read one another's submitted entries
+ * (with the patient codes, which they examined themselves) to compare readings.
+ */
+export async function closedRoundsExamined(userId: string): Promise<Set<string>> {
+  const memberships = await RoundExaminerModel.findAll({ attributes: ['roundId'], where: { examinerId: userId }, raw: true })
+  if (!memberships.length) return new Set()
+  const closed = await RoundModel.findAll({
+    attributes: ['id'],
+    where: { id: { [Op.in]: memberships.map((m) => m.roundId) }, status: 'closed' },
+    raw: true,
+  })
+  return new Set(closed.map((r) => r.id))
+}
+
+/** A scope's clause narrowed by the blinding clause. */
+export function blinded(where: Where | null, clause: Where | null): Where | null {
+  if (!where || !clause) return where
+  return { [Op.and]: [where, clause] }
+}
+
+export const roundBlinded = () =>
+  new AppError('round-blinded', 403, 'This is another examiner’s entry in an open calibration round; it can be read once the round closes')
+
+/**
+ * Why a row the reader cannot read is hidden, when the reason is a round's blinding: 403 for a member of the round
+ * (an examiner or its educator) or anyone who could read the exam without the blinding; null (so 404) otherwise.
+ */
+export async function blindedEntryError(user: User, id: string, unblinded: Where | null): Promise<AppError | null> {
+  const row = await ExamModel.findByPk(id, { attributes: ['id', 'roundId', 'examinerId'] })
+  if (!row?.roundId || row.examinerId === user.id) return null
+  const round = await RoundModel.findByPk(row.roundId)
+  if (round?.status !== 'open') return null
+  if (round.createdBy === user.id) return roundBlinded()
+  if ((await RoundExaminerModel.count({ where: { roundId: round.id, examinerId: user.id } })) > 0) return roundBlinded()
+  const wouldRead = !!unblinded && (await ExamModel.count({ where: { [Op.and]: [{ id }, unblinded] } })) > 0
+  return wouldRead ? roundBlinded() : null
+}

@@ -1,0 +1,103 @@
+import { Op, Transaction, type Sequelize } from 'sequelize'
+import {
+  settingsChanges,
+  withDefaults,
+  type AppSettingsUpdate,
+  type SettingsHistoryEntry,
+  type SettingsVersion,
+} from '#shared/schemas/settings'
+import type { User } from '#shared/schemas/user'
+import { audit } from '../audit.ts'
+import { AppError } from '../errors.ts'
+import { UserModel } from '../models/index.ts'
+import { SettingsVersionModel, settingsVersions } from './settings.model.ts'
+
+export interface SettingsChange {
+  before: SettingsVersion
+  after: SettingsVersion
+}
+
+const HISTORY_LENGTH = 20
+// Per database, so each test's fresh database reads its own settings; replaced, never mutated, on every save.
+const cache = new WeakMap<Sequelize, Promise<SettingsVersion>>()
+const listeners: ((change: SettingsChange) => void)[] = []
+
+const present = (row: SettingsVersionModel): SettingsVersion => ({
+  version: row.version,
+  values: withDefaults(JSON.parse(row.values)),
+  changedAt: row.changedAt.toISOString(),
+})
+
+async function latestRow(transaction?: Transaction): Promise<SettingsVersionModel> {
+  const row = await settingsVersions().findOne({ order: [['version', 'DESC']], transaction })
+  if (!row) throw new Error('No settings stored: the settings migration seeds version 1')
+  return row
+}
+
+/**
+ * The settings in force and their version, for any server code (the estimate, pairing, photos). Read from the
+ * database once and kept in memory until an admin saves a new version.
+ */
+export function currentSettings(): Promise<SettingsVersion> {
+  const sequelize = settingsVersions().sequelize!
+  let current = cache.get(sequelize)
+  if (!current) {
+    current = latestRow().then(present)
+    current.catch(() => cache.delete(sequelize))
+    cache.set(sequelize, current)
+  }
+  return current
+}
+
+/** Calls `listener` after each saved change (not for a save that changes nothing), e.g. to drop caches built on the old values. */
+export function onSettingsChange(listener: (change: SettingsChange) => void): void {
+  listeners.push(listener)
+}
+
+/** One stored version; 404 when there is none. */
+export async function settingsVersion(version: number): Promise<SettingsVersion> {
+  const row = await settingsVersions().findByPk(version)
+  if (!row) throw new AppError('settings-version-not-found', 404, `There is no settings version ${version}`)
+  return present(row)
+}
+
+/**
+ * Saves the admin's settings as a new version, audited with the before/after of each changed value. A save based on
+ * an older version answers 409 with the newer one; a save that changes nothing adds no version.
+ */
+export async function updateSettings(admin: User, input: AppSettingsUpdate): Promise<SettingsVersion> {
+  const { baseVersion, ...values } = input
+  const model = settingsVersions()
+  const sequelize = model.sequelize!
+  const { saved, change } = await sequelize.transaction({ type: Transaction.TYPES.IMMEDIATE }, async (transaction) => {
+    const latest = await latestRow(transaction)
+    const before = present(latest)
+    if (latest.version !== baseVersion)
+      throw new AppError('stale-settings', 409, 'Someone saved newer settings after you opened them', undefined, { settings: before })
+    const changes = settingsChanges(before.values, values)
+    if (!Object.keys(changes).length) return { saved: before, change: null }
+    const row = await model.create({ version: latest.version + 1, values: JSON.stringify(values), changedBy: admin.id, changedAt: new Date() }, { transaction })
+    const version = { from: latest.version, to: row.version }
+    await audit({ actorId: admin.id, action: 'settings-update', entityType: 'settings', entityId: String(row.version), changes: { ...changes, version } }, { transaction })
+    return { saved: present(row), change: { before, after: present(row) } }
+  })
+  cache.set(sequelize, Promise.resolve(saved))
+  if (change) for (const listener of listeners) listener(change)
+  return saved
+}
+
+/** The latest versions, newest first, each with who saved it and what it changed against the version before. */
+export async function settingsHistory(): Promise<SettingsHistoryEntry[]> {
+  const rows = await settingsVersions().findAll({ order: [['version', 'DESC']], limit: HISTORY_LENGTH + 1 })
+  const authorIds = [...new Set(rows.flatMap((r) => (r.changedBy ? [r.changedBy] : [])))]
+  const authors = await UserModel.findAll({ where: { id: { [Op.in]: authorIds } } })
+  const names = new Map(authors.map((u) => [u.id, u.displayName]))
+  const versions = rows.map(present)
+  return versions.slice(0, HISTORY_LENGTH).map((v, i) => {
+    const by = rows[i]!.changedBy
+    const previous = versions[i + 1]
+    // The oldest version shown is compared with the one before it; version 1 has nothing before it.
+    const changes = v.version === 1 || !previous ? {} : settingsChanges(previous.values, v.values)
+    return { ...v, changedBy: by ? { id: by, displayName: names.get(by) ?? '' } : null, changes }
+  })
+}
