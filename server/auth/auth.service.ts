@@ -4,7 +4,7 @@ import { audit } from '../audit.ts'
 import { AppError } from '../errors.ts'
 import { RefreshSessionModel, UserModel } from '../models/index.ts'
 import { getUser, rolesOf } from '../users/users.service.ts'
-import { verifyPassword } from './passwords.ts'
+import { hashPassword, needsRehash, verifyPassword } from './passwords.ts'
 import { hashToken, newOpaqueToken, signAccessToken } from './tokens.ts'
 
 export const REFRESH_TTL_MS = 12 * 60 * 60 * 1000
@@ -36,6 +36,8 @@ export async function login(secret: string, input: LoginInput): Promise<IssuedSe
     await audit({ actorId: row?.id ?? null, action: 'login-failed', entityType: 'user', entityId: row?.id })
     throw invalidCredentials()
   }
+  // Accounts hashed under an older, lower work factor are brought up to today's while the password is at hand.
+  if (needsRehash(row.passwordHash!)) await row.update({ passwordHash: await hashPassword(input.password) })
   await audit({ actorId: row.id, action: 'login', entityType: 'user', entityId: row.id })
   return issue(secret, { ...(await getUser(row.id))!, roles: rolesOf(row) }, randomUUID())
 }

@@ -7,10 +7,9 @@ import { sortedJson, storedInput } from './exam-columns.ts'
 
 export { columnsOf, storedInput } from './exam-columns.ts'
 
-/** The return comment as the reader may see it: a masked reader gets the pseudonym wherever the code was typed. */
-function commentFor(row: ExamModel, code: string): string | null {
-  if (!row.returnComment || code === row.patientCode) return row.returnComment ?? null
-  return maskCodes(row.returnComment, [row.patientCode], () => code)
+/** Free text (notes, a return comment) as the reader may see it: a masked reader gets the pseudonym wherever the code was typed. */
+function textFor(text: string, row: ExamModel, code: string): string {
+  return code === row.patientCode ? text : maskCodes(text, [row.patientCode], () => code)
 }
 
 /** Rows as the API's exam shape, with names and signatures joined and the patient code as the reader may see it. */
@@ -27,6 +26,7 @@ export async function present(rows: ExamModel[], codeOf: (row: ExamModel) => str
     ExamSchema.parse({
       ...storedInput(row),
       patientCode: codeOf(row),
+      notes: textFor(row.notes ?? '', row, codeOf(row)),
       examinerId: row.examinerId,
       examinerName: userNames.get(row.examinerId) ?? '',
       teamName: teamNames.get(row.teamId) ?? '',
@@ -37,7 +37,7 @@ export async function present(rows: ExamModel[], codeOf: (row: ExamModel) => str
       updatedAt: row.updatedAt.toISOString(),
       submittedAt: row.submittedAt?.toISOString() ?? null,
       signatures: signatures.get(row.id) ?? [],
-      returnComment: commentFor(row, codeOf(row)),
+      returnComment: row.returnComment ? textFor(row.returnComment, row, codeOf(row)) : null,
     }),
   )
 }

@@ -1,4 +1,5 @@
 import { generateKeyPairSync } from 'node:crypto'
+import bcrypt from 'bcryptjs'
 import jwt from 'jsonwebtoken'
 import request from 'supertest'
 import { beforeEach, describe, expect, it } from 'vitest'
@@ -38,6 +39,19 @@ describe('POST /api/auth/login', () => {
     expect(cookie).toMatch(/HttpOnly/)
     expect(cookie).toMatch(/SameSite=Strict/)
     expect(await AuditEventModel.count({ where: { action: 'login', actorId: user.id } })).toBe(1)
+  })
+
+  it('stores passwords with bcrypt at work factor 13 and raises an older, weaker hash at the next sign-in', async () => {
+    // RELIABILITY.md (OWASP ASVS 2.4.4): bcrypt cost ≥ 13.
+    const user = await makeUser({ email: 'old-hash@example.test' })
+    await user.update({ passwordHash: await bcrypt.hash(PASSWORD, 10) })
+
+    const { res } = await signIn(app, 'old-hash@example.test')
+
+    expect(res.status).toBe(200)
+    await user.reload()
+    expect(bcrypt.getRounds(user.passwordHash!)).toBe(13)
+    expect(await bcrypt.compare(PASSWORD, user.passwordHash!)).toBe(true)
   })
 
   it('with a wrong password or an unknown e-mail, answers the same 401 and audits the failure', async () => {

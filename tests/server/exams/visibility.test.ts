@@ -97,6 +97,23 @@ describe('who reads which exams (PRODUCT.md §2)', () => {
     expect(readDraft.status).toBe(404)
   })
 
+  it('an educator reads the notes with the patient code masked where the author typed it', async () => {
+    const { cardiology, resident, join } = await twoWards()
+    const noted = await recordSubmittedExam(app, resident.auth, {
+      teamId: cardiology.id,
+      patientCode: 'SM-0171',
+      notes: 'Compared with sm-0171 yesterday: column higher.',
+    })
+    const [educator, attending] = [await join(['educator']), await join(['attending'], [cardiology.id])]
+
+    const asEducator = await readAs(educator.auth, noted)
+    const asAttending = await readAs(attending.auth, noted)
+
+    expect(asEducator.body.notes).toBe(`Compared with ${asEducator.body.patientCode} yesterday: column higher.`)
+    expect(JSON.stringify(asEducator.body).toLowerCase()).not.toContain('sm-0171')
+    expect(asAttending.body.notes).toBe('Compared with sm-0171 yesterday: column higher.')
+  })
+
   it('masks one patient’s code the same way on every exam, and two patients differently', async () => {
     const { cardiology, resident, submitted, join } = await twoWards()
     const again = await recordSubmittedExam(app, resident.auth, { teamId: cardiology.id, patientCode: 'SM-0157' })
