@@ -37,8 +37,8 @@ export interface AppDeps {
   mailer?: Mailer
   /** The demo's fake SMTP server; when present, admins read what it caught at /api/mailbox. */
   mailbox?: Pick<FakeSmtp, 'messages'>
-  /** Base of links in e-mails; the request's own origin when omitted. */
-  baseUrl?: string
+  /** Base of links in e-mails (PUBLIC_URL); never taken from a request's Host header, which the caller controls. */
+  baseUrl: string
   /** Where exam photos are written (DATA_DIR/attachments), outside the web root; a temp folder when omitted. */
   attachmentsDir?: string
 }
@@ -83,7 +83,7 @@ export function createApp(deps: AppDeps): Express {
   if (deps.mailbox) app.use('/api/mailbox', requireAuth(deps.secret), requireRole('admin'), mailboxRouter(deps.mailbox))
   app.use('/api/agreement', requireAuth(deps.secret), agreementRouter({ secret: deps.secret }))
   app.use('/api/sync', requireAuth(deps.secret), syncRouter({ secret: deps.secret }))
-  app.use('/api/rounds', requireAuth(deps.secret), roundsRouter())
+  app.use('/api/rounds', requireAuth(deps.secret), roundsRouter({ secret: deps.secret }))
   app.use('/api/settings', requireAuth(deps.secret), settingsRouter())
   app.use('/api/admin/settings', requireAuth(deps.secret), requireRole('admin'), adminSettingsRouter())
   app.use('/api/admin/roster', requireAuth(deps.secret), requireRole('admin'), rosterRouter({ log: deps.log, mailer: deps.mailer, baseUrl: deps.baseUrl }))

@@ -1,5 +1,6 @@
 import { randomBytes } from 'node:crypto'
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { createServer } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import path from 'node:path'
 import { fileURLToPath } from 'node:url'
@@ -47,6 +48,15 @@ export async function startServer(config: Config): Promise<RunningServer> {
     log,
     auth: config.SMTP_USER ? { user: config.SMTP_USER, pass: config.SMTP_PASS ?? '' } : undefined,
   })
+  // Listen first, so the address e-mail links fall back to is known (the port may be chosen by the system).
+  const server = createServer()
+  server.listen(config.PORT, config.HOST)
+  await new Promise<void>((resolve, reject) => server.once('listening', resolve).once('error', reject))
+  const { port } = server.address() as AddressInfo
+  const url = `http://${config.HOST === '127.0.0.1' ? 'localhost' : config.HOST}:${port}`
+  // Links in e-mails never come from a request's Host header, which a caller controls (a reset link could be
+  // pointed at another site); without PUBLIC_URL they point at the address the server listens on.
+  if (!config.PUBLIC_URL && !config.DEMO) log.warn({ url }, 'PUBLIC_URL is not set; links in e-mails point at the listening address')
   const app = createApp({
     secret: jwtSecret(config),
     log,
@@ -55,15 +65,12 @@ export async function startServer(config: Config): Promise<RunningServer> {
     clientDir: path.join(root, 'dist'),
     mailer,
     mailbox: fakeSmtp,
-    baseUrl: config.PUBLIC_URL,
+    baseUrl: config.PUBLIC_URL ?? url,
     attachmentsDir: path.join(config.DATA_DIR, 'attachments'),
   })
+  server.on('request', app)
   // Pairs every exam once now, so neither the first save nor the first agreement view pays for it.
   void observerTerm().catch((err: unknown) => log.warn({ err }, 'could not precompute the agreement pairs'))
-  const server = app.listen(config.PORT, config.HOST)
-  await new Promise<void>((resolve, reject) => server.once('listening', resolve).once('error', reject))
-  const { port } = server.address() as AddressInfo
-  const url = `http://${config.HOST === '127.0.0.1' ? 'localhost' : config.HOST}:${port}`
   return {
     url,
     close: async () => {

@@ -1,4 +1,4 @@
-import { Router, type Request } from 'express'
+import { Router } from 'express'
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
 import type { Logger } from 'pino'
 import {
@@ -27,23 +27,21 @@ import { requestPasswordReset, setPasswordWithLink } from './password-links.serv
 
 export interface AccountsRouterOptions {
   mailer?: Mailer
-  /** Base of links in e-mails; the request's own origin when omitted. */
-  baseUrl?: string
+  /** Base of links in e-mails (PUBLIC_URL); never the request's Host header, which the caller controls. */
+  baseUrl: string
 }
-
-const baseUrlOf = (configured: string | undefined, req: Request) => configured ?? `${req.protocol}://${req.get('host')}`
 
 /** Admin account management, mounted under `/api` behind requireAuth. */
 export function accountsRouter({ mailer, baseUrl }: AccountsRouterOptions): Router {
   setAccountMailDefaults({ mailer, baseUrl })
   const router = Router()
   const admin = requireRole('admin')
-  const mail = (req: Request) => ({ mailer, baseUrl: baseUrlOf(baseUrl, req) })
+  const mail = () => ({ mailer, baseUrl })
 
   router.get('/admin/accounts', admin, async (req, res) => res.json(await listAccounts(AccountQuerySchema.parse(req.query))))
   router.get('/admin/accounts/:id', admin, async (req, res) => res.json(await getAccount(String(req.params.id))))
   router.post('/admin/accounts', admin, async (req, res) =>
-    res.status(201).json(await inviteAccount(InviteInputSchema.parse(req.body), currentUser(res), mail(req))),
+    res.status(201).json(await inviteAccount(InviteInputSchema.parse(req.body), currentUser(res), mail())),
   )
   router.patch('/admin/accounts/:id', admin, async (req, res) =>
     res.json(await updateAccount(String(req.params.id), AccountPatchSchema.parse(req.body), currentUser(res))),
@@ -55,7 +53,7 @@ export function accountsRouter({ mailer, baseUrl }: AccountsRouterOptions): Rout
     res.json(await reactivateAccount(String(req.params.id), currentUser(res))),
   )
   router.post('/admin/accounts/:id/invitation', admin, async (req, res) =>
-    res.json(await resendInvitation(String(req.params.id), currentUser(res), mail(req))),
+    res.json(await resendInvitation(String(req.params.id), currentUser(res), mail())),
   )
   return router
 }
@@ -98,7 +96,7 @@ export function accountAuthRouter({ mailer, baseUrl, log, resetAttempts = 5, set
   router.post('/password-reset', resetLimiter, (req, res) => {
     const input = PasswordResetRequestSchema.parse(req.body)
     res.status(202).json(PASSWORD_RESET_ACCEPTED)
-    const mail = { mailer, baseUrl: baseUrlOf(baseUrl, req) }
+    const mail = { mailer, baseUrl }
     runAfterResponse(log, 'password reset request', () => requestPasswordReset(input, mail))
   })
   router.post('/set-password', setPasswordLimiter, async (req, res) => {

@@ -22,10 +22,15 @@ export async function presentEvents(rows: AuditEventModel[]): Promise<AuditEvent
   )
 }
 
-/** The patient codes an event's before/after names in its `patientCode` field. */
+/**
+ * The patient codes an event's before/after names: in its `patientCode` field (exams) and in a `patientCodes` list
+ * (e.g. `round-create`, whose `to` lists the round's codes).
+ */
 function codesIn(event: AuditEvent): string[] {
-  const change = event.changes?.patientCode as { from?: unknown; to?: unknown } | undefined
-  return [change?.from, change?.to].filter((c): c is string => typeof c === 'string')
+  const single = event.changes?.patientCode as { from?: unknown; to?: unknown } | undefined
+  const lists = event.changes?.patientCodes as { from?: unknown; to?: unknown } | undefined
+  const values = [single?.from, single?.to, ...[lists?.from, lists?.to].flatMap((v) => (Array.isArray(v) ? v : [v]))]
+  return values.filter((c): c is string => typeof c === 'string')
 }
 
 /** Replaces every known patient code in the events' before/after (fields and free text) with its pseudonym. */

@@ -1,6 +1,8 @@
 import { randomUUID } from 'node:crypto'
 import type { Role } from '#shared/schemas/user'
 import { hashPassword } from '../auth/passwords.ts'
+import { currentSettings, updateSettings } from '../settings/settings.service.ts'
+import { getUser } from '../users/users.service.ts'
 import { MembershipModel, TeamModel, UserModel } from '../models/index.ts'
 import { seedDemoExams } from './demo-exams.ts'
 import { seedDemoPairs } from './demo-pairs.ts'
@@ -32,6 +34,18 @@ const ACCOUNTS: DemoAccount[] = [
   { email: 'resident6@saltmarsh.test', displayName: 'Dr Mei Tanaka', roles: ['resident'], teams: ['Medical ICU'] },
 ]
 
+/**
+ * Photos are off in a new deployment until a hospital has agreed consent and storage; the demo shows them, so its
+ * admin switches them on once, as an audited settings change like any other.
+ */
+async function allowDemoPhotos(): Promise<void> {
+  const current = await currentSettings()
+  if (current.version !== 1 || current.values.photosAllowed) return
+  const admin = await UserModel.findOne({ where: { email: 'admin@saltmarsh.test' } })
+  const user = admin && (await getUser(admin.id))
+  if (user) await updateSettings(user, { ...current.values, photosAllowed: true, baseVersion: current.version })
+}
+
 /** Creates the demo hospital's teams, accounts and exams that are missing; running it twice changes nothing. */
 export async function seedDemo(): Promise<{ created: number; exams: number }> {
   const teamIds = new Map<string, string>()
@@ -54,6 +68,7 @@ export async function seedDemo(): Promise<{ created: number; exams: number }> {
     await MembershipModel.bulkCreate(a.teams.map((t) => ({ userId: user.id, teamId: teamIds.get(t)! })))
     created += 1
   }
+  await allowDemoPhotos()
   const exams = await seedDemoExams(teamIds)
   await seedDemoPairs(teamIds)
   await seedDemoRound(teamIds)

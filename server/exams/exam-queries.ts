@@ -23,8 +23,12 @@ const SORT_COLUMNS: Record<ExamListQuery['sort'], string> = {
 
 const invalid = (field: string, message: string) => new AppError('invalid-input', 400, 'Some fields need attention', { [field]: message })
 
+/** The exam log's filters, shared by the list and the CSV export; only the list sorts. */
+export type ExamFilterQuery = Pick<ExamListQuery, 'status' | 'teamId' | 'examinerId' | 'patientCode' | 'from' | 'to'> &
+  Partial<Pick<ExamListQuery, 'sort'>>
+
 /** Masked rows must not be found, nor ordered, by their real code; a search by code stays within the clinical scope. */
-function visibleWhere(scope: ExamScope, query: ExamListQuery): WhereOptions<ExamModel> {
+function visibleWhere(scope: ExamScope, query: ExamFilterQuery): WhereOptions<ExamModel> {
   if (query.patientCode) {
     if (!scope.clinical) throw invalid('patientCode', 'Patient codes are masked for your role; search by team or examiner')
     return scope.clinical
@@ -35,7 +39,7 @@ function visibleWhere(scope: ExamScope, query: ExamListQuery): WhereOptions<Exam
   return where
 }
 
-function filtersOf(query: ExamListQuery): WhereOptions<ExamModel>[] {
+function filtersOf(query: ExamFilterQuery): WhereOptions<ExamModel>[] {
   if (query.from && query.to && new Date(query.from) > new Date(query.to)) throw invalid('to', 'The end of the range is before its start')
   return [
     query.status && { status: query.status },
@@ -47,7 +51,13 @@ function filtersOf(query: ExamListQuery): WhereOptions<ExamModel>[] {
   ].filter((w) => !!w)
 }
 
-function codeFor(scope: ExamScope, viewer: Viewer) {
+/** The rows of the exam log this reader may see under these filters (field errors for what their role may not ask). */
+export function logWhere(scope: ExamScope, query: ExamFilterQuery): WhereOptions<ExamModel> {
+  return { [Op.and]: [visibleWhere(scope, query), ...filtersOf(query)] }
+}
+
+/** The patient code as this reader sees it: real within their clinical scope, else the keyed pseudonym. */
+export function codeFor(scope: ExamScope, viewer: Viewer) {
   return (row: ExamModel) => (scope.showsCode(row) ? row.patientCode : viewer.mask(row.patientCode))
 }
 
@@ -69,7 +79,7 @@ export async function getExam(viewer: Viewer, id: string): Promise<Exam> {
 export async function listExams(viewer: Viewer, query: ExamListQuery): Promise<ExamList> {
   const scope = await scopeOf(viewer.user)
   const { rows, count } = await ExamModel.findAndCountAll({
-    where: { [Op.and]: [visibleWhere(scope, query), ...filtersOf(query)] },
+    where: logWhere(scope, query),
     order: [
       [SORT_COLUMNS[query.sort], query.order.toUpperCase()],
       ['id', 'ASC'],

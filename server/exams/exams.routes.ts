@@ -35,7 +35,7 @@ export function examsRouter(options: SupervisionRouterOptions): Router {
   )
   router.post('/exams/:id/submit', authors, async (req, res) => {
     const exam = await submitExam(currentUser(res), idOf(req), SubmitSchema.parse(req.body ?? {}).baseVersion)
-    await notifier(req).submitted(exam)
+    await notifier.submitted(exam)
     res.json(exam)
   })
   return router

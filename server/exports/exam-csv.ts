@@ -3,6 +3,7 @@ import { CAUTION_TEXT } from '#shared/domain/interpretation'
 import { signatureText } from '#shared/domain/signature-text'
 import type { Exam } from '#shared/schemas/exam'
 import { currentSignature } from './fhir-bundle.ts'
+import { FORMULA_START } from '#shared/domain/csv-safety'
 
 type Cell = string | number | boolean | null
 
@@ -46,14 +47,6 @@ export const CSV_COLUMNS: readonly [name: string, value: (exam: Exam, masked: bo
   ['countersignature', (x) => (x.signatures ?? []).map(signatureText).join(' | ') || null],
   ['caution', () => CAUTION_TEXT],
 ]
-
-/**
- * Cells a spreadsheet would run as a formula start with = + - @, a tab or a carriage return (OWASP, "CSV Injection");
- * papaparse prefixes them with an apostrophe. Its own pattern for `escapeFormulae: true` ends in `.*$`, which misses a
- * cell whose first line is a formula and that goes on after a line break, so the pattern is only the first character.
- * Numbers are left alone (papaparse never escapes a number), so −2.5 stays a number.
- */
-const FORMULA_START = /^[=+\-@\t\r]/
 
 /** The rows as CSV text: a header row, CRLF line ends (RFC 4180), UTF-8 with a byte-order mark for spreadsheets. */
 export function examsCsv(rows: { exam: Exam; masked: boolean }[]): string {

@@ -72,7 +72,7 @@ export function firstInvalidUtf8(bytes: Uint8Array): number {
 const lineAt = (bytes: Uint8Array, index: number) => 1 + bytes.subarray(0, index).filter((b) => b === 0x0a).length
 
 function describeType(type: { ext: string; mime: string }): string {
-  if (type.ext === 'xlsx' || type.ext === 'xls') return 'an Excel workbook'
+  if (type.ext === 'xlsx' || type.ext === 'xls') return 'a spreadsheet workbook (XLSX/XLS)'
   if (type.ext === 'ods') return 'a spreadsheet document'
   if (type.ext === 'zip') return 'a ZIP archive'
   if (type.ext === 'pdf') return 'a PDF document'
@@ -80,7 +80,7 @@ function describeType(type: { ext: string; mime: string }): string {
   return `a ${type.ext.toUpperCase()} file (${type.mime})`
 }
 
-const SAVE_AS = 'In your spreadsheet, save the roster as "CSV UTF-8" and upload that file.'
+const SAVE_AS = 'In your spreadsheet, save the roster as comma-separated text in UTF-8 and upload that file.'
 
 /**
  * The file's text, judged by its bytes (never by its name or the client's MIME type): a known binary signature, a NUL byte,

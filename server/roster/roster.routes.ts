@@ -12,7 +12,7 @@ export interface RosterRouterOptions {
   log: Logger
   mailer?: Mailer
   /** Base of links in e-mails; the request's own origin when omitted. */
-  baseUrl?: string
+  baseUrl: string
 }
 
 const FIELD = 'file'
@@ -54,8 +54,7 @@ export function rosterRouter(options: RosterRouterOptions): Router {
   })
   router.post('/apply', async (req, res) => {
     const file = await receiveRoster(req, res)
-    const baseUrl = options.baseUrl ?? `${req.protocol}://${req.get('host')}`
-    const applied = await applyRoster(file, currentUser(res), { mailer: options.mailer, baseUrl })
+    const applied = await applyRoster(file, currentUser(res), { mailer: options.mailer, baseUrl: options.baseUrl })
     const result: RosterApplyResult = { ...applied.preview, created: applied.created, updated: applied.updated, skipped: applied.skipped }
     res.json(result)
   })

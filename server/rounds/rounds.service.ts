@@ -8,6 +8,7 @@ import { AppError } from '../errors.ts'
 import { ExamModel, RoundExaminerModel, RoundModel, RoundPatientCodeModel, UserModel } from '../models/index.ts'
 import { currentSettings } from '../settings/settings.service.ts'
 import { rolesOf } from '../users/users.service.ts'
+import { codePresenter, examIdsShown, type CodePresenter, type RoundViewer } from './round-presentation.ts'
 import { cellKey, roundStatistics, type RoundReadings } from './round-results.ts'
 
 /** A round with its patient codes and examiners in the order the educator gave them. */
@@ -64,6 +65,8 @@ async function visibleRound(user: User, id: string): Promise<LoadedRound> {
 
 const isCreator = (user: User, { round }: LoadedRound) => round.createdBy === user.id && user.roles.includes('educator')
 const isExaminer = (user: User, { examiners }: LoadedRound) => examiners.some((e) => e.id === user.id)
+/** The round's codes as this viewer sees them: real for its examiners, pseudonyms for everyone else. */
+const presenterFor = (viewer: RoundViewer, loaded: LoadedRound) => codePresenter(viewer, loaded.patientCodes, isExaminer(viewer.user, loaded))
 
 /** The round's exams by cell: the latest by time of exam (then by last change) wins. */
 async function cellsOf(loaded: LoadedRound): Promise<Cells> {
@@ -92,19 +95,20 @@ async function cellsOf(loaded: LoadedRound): Promise<Cells> {
 /** The height ICC and kappa use: h above the sternal angle of an exam whose column top was seen (as agreement pairs do). */
 const measuredHeight = (row: ExamModel): number | null => (row.columnTop === 'seen' ? row.verticalHeightCm : null)
 
-function summaryOf(loaded: LoadedRound, recorded: number): RoundSummary {
+function summaryOf(loaded: LoadedRound, recorded: number, codes: CodePresenter): RoundSummary {
   const { round, patientCodes, examiners, creator } = loaded
   return {
     id: round.id,
-    name: round.name,
+    name: codes.text(round.name),
     status: round.status === 'closed' ? 'closed' : 'open',
     createdBy: creator,
     createdAt: round.createdAt.toISOString(),
     closedAt: round.closedAt?.toISOString() ?? null,
-    patientCodes,
+    patientCodes: patientCodes.map(codes.code),
     examiners,
     recorded,
     expected: patientCodes.length * examiners.length,
+    codesMasked: codes.masked,
   }
 }
 
@@ -121,8 +125,11 @@ async function checkExaminers(examinerIds: readonly string[]): Promise<void> {
   if (Object.keys(fields).length) throw invalid(fields)
 }
 
-/** A new open round by the signed-in educator, audited as `round-create`. */
-export async function createRound(educator: User, input: RoundCreate): Promise<RoundDetail> {
+/**
+ * A new open round by the signed-in educator, audited as `round-create`. Answers its id only: the educator typed the
+ * codes, but reads the round back (`getRound`) with them masked like everyone outside its examiners.
+ */
+export async function createRound(educator: User, input: RoundCreate): Promise<{ id: string }> {
   await checkExaminers(input.examinerIds)
   const id = randomUUID()
   await inTransaction(async (transaction) => {
@@ -143,11 +150,12 @@ export async function createRound(educator: User, input: RoundCreate): Promise<R
     }
     await audit({ actorId: educator.id, action: 'round-create', entityType: 'round', entityId: id, changes }, { transaction })
   })
-  return getRound(educator, id)
+  return { id }
 }
 
 /** Educators see the rounds they created; residents and attendings the rounds they examine in. Open rounds first, newest first. */
-export async function listRounds(user: User): Promise<RoundSummary[]> {
+export async function listRounds(viewer: RoundViewer): Promise<RoundSummary[]> {
+  const { user } = viewer
   const examinerOf = await RoundExaminerModel.findAll({ attributes: ['roundId'], where: { examinerId: user.id }, raw: true })
   const mine: WhereOptions<RoundModel>[] = [{ id: { [Op.in]: examinerOf.map((e) => e.roundId) } }]
   if (user.roles.includes('educator')) mine.push({ createdBy: user.id })
@@ -161,7 +169,7 @@ export async function listRounds(user: User): Promise<RoundSummary[]> {
   })
   const loaded = await loadRounds(rounds)
   const counts = await recordedCounts(loaded)
-  return loaded.map((l) => summaryOf(l, counts.get(l.round.id) ?? 0))
+  return loaded.map((l) => summaryOf(l, counts.get(l.round.id) ?? 0, presenterFor(viewer, l)))
 }
 
 /** How many cells of each round hold a submitted exam. */
@@ -187,24 +195,34 @@ async function recordedCounts(rounds: LoadedRound[]): Promise<Map<string, number
 /**
  * The round with its progress grid. Values (exam id and height) are blinded while the round is open: each examiner
  * sees only their own, and the round's educator sees who has recorded which code but no values. After close, everyone
- * in the round sees them all. A draft shows only to its author.
+ * in the round sees them all. A draft shows only to its author. Codes as `presenterFor` shows them; an exam id only
+ * where the viewer may read that exam with its code shown the same way (`examIdsShown`).
  */
-export async function getRound(user: User, id: string): Promise<RoundDetail> {
+export async function getRound(viewer: RoundViewer, id: string): Promise<RoundDetail> {
+  const { user } = viewer
   const loaded = await visibleRound(user, id)
+  const codes = presenterFor(viewer, loaded)
   const { recorded, drafts } = await cellsOf(loaded)
   const closed = loaded.round.status === 'closed'
-  const entries: RoundEntry[] = loaded.patientCodes.flatMap((patientCode) =>
+  const cells = loaded.patientCodes.flatMap((patientCode) =>
     loaded.examiners.map((examiner) => {
       const key = cellKey(examiner.id, patientCode)
       const own = examiner.id === user.id
       const exam = recorded.get(key) ?? (own ? drafts.get(key) : undefined)
-      const state = recorded.has(key) ? 'recorded' : exam ? 'draft' : 'missing'
-      const shown = exam && (own || closed)
-      return { examinerId: examiner.id, patientCode, state, examId: shown ? exam.id : null, heightCm: shown ? measuredHeight(exam) : null }
+      const state: RoundEntry['state'] = recorded.has(key) ? 'recorded' : exam ? 'draft' : 'missing'
+      return { examiner, patientCode, state, exam: exam && (own || closed) ? exam : undefined }
     }),
   )
+  const readableIds = await examIdsShown(viewer, cells.flatMap((c) => (c.exam ? [c.exam.id] : [])), codes.masked)
+  const entries: RoundEntry[] = cells.map(({ examiner, patientCode, state, exam }) => ({
+    examinerId: examiner.id,
+    patientCode: codes.code(patientCode),
+    state,
+    examId: exam && readableIds.has(exam.id) ? exam.id : null,
+    heightCm: exam ? measuredHeight(exam) : null,
+  }))
   return {
-    ...summaryOf(loaded, recorded.size),
+    ...summaryOf(loaded, recorded.size, codes),
     entries,
     canClose: !closed && isCreator(user, loaded),
     isExaminer: isExaminer(user, loaded),
@@ -212,7 +230,7 @@ export async function getRound(user: User, id: string): Promise<RoundDetail> {
 }
 
 /** Closes the round; only its own educator may. Audited as `round-close`. Its entries then become readable as usual. */
-export async function closeRound(user: User, id: string): Promise<RoundDetail> {
+export async function closeRound(user: User, id: string): Promise<void> {
   const loaded = await visibleRound(user, id)
   if (!isCreator(user, loaded)) throw new AppError('not-round-owner', 403, 'Only the educator who created the round can close it')
   await inTransaction(async (transaction) => {
@@ -225,12 +243,11 @@ export async function closeRound(user: User, id: string): Promise<RoundDetail> {
     const changes = { status: { from: 'open', to: 'closed' }, closedAt: { from: null, to: closedAt.toISOString() } }
     await audit({ actorId: user.id, action: 'round-close', entityType: 'round', entityId: id, changes }, { transaction })
   })
-  return getRound(user, id)
 }
 
-/** The closed round's agreement for its educator and examiners; while it is open, 409. */
-export async function roundResults(user: User, id: string): Promise<RoundResults> {
-  const loaded = await visibleRound(user, id)
+/** The closed round's agreement for its educator and examiners (codes as `presenterFor` shows them); while it is open, 409. */
+export async function roundResults(viewer: RoundViewer, id: string): Promise<RoundResults> {
+  const loaded = await visibleRound(viewer.user, id)
   if (loaded.round.status !== 'closed')
     throw new AppError('round-open', 409, 'Results are shown once the round is closed, so that no examiner sees another’s readings')
   const { recorded } = await cellsOf(loaded)
@@ -238,13 +255,17 @@ export async function roundResults(user: User, id: string): Promise<RoundResults
   // The elevated threshold in force now (§4.6, a setting), applied to every reading alike.
   const { elevatedAboveCm } = (await currentSettings()).values.estimate
   const stats = roundStatistics(loaded.patientCodes, loaded.examiners, readings, elevatedAboveCm)
+  const codes = presenterFor(viewer, loaded)
   return {
     roundId: loaded.round.id,
-    name: loaded.round.name,
+    name: codes.text(loaded.round.name),
     closedAt: loaded.round.closedAt?.toISOString() ?? null,
-    patientCodes: loaded.patientCodes,
+    patientCodes: loaded.patientCodes.map(codes.code),
     examiners: loaded.examiners,
     ...stats,
+    incompleteCodes: stats.incompleteCodes.map(codes.code),
+    missing: { count: stats.missing.count, entries: stats.missing.entries.map((e) => ({ ...e, patientCode: codes.code(e.patientCode) })) },
+    codesMasked: codes.masked,
     caution: CAUTION_TEXT,
   }
 }

@@ -17,12 +17,12 @@ export interface SupervisionRouterOptions {
   log: Logger
   mailer?: Mailer
   /** Base of links in e-mails; the request's own origin when omitted. */
-  baseUrl?: string
+  baseUrl: string
 }
 
-/** A notifier whose links point at the configured base, or at the origin the request came to. */
-export function requestNotifier({ mailer, log, baseUrl }: Omit<SupervisionRouterOptions, 'secret'>) {
-  return (req: Request): Notifier => createNotifier({ mailer, log, baseUrl: baseUrl ?? `${req.protocol}://${req.get('host')}` })
+/** The workflow notifier; its links point at the configured base (PUBLIC_URL), never at a request's Host header. */
+export function requestNotifier({ mailer, log, baseUrl }: Omit<SupervisionRouterOptions, 'secret'>): Notifier {
+  return createNotifier({ mailer, log, baseUrl })
 }
 
 const IdParamsSchema = z.object({ id: z.string() })
@@ -39,12 +39,12 @@ export function supervisionRouter(options: SupervisionRouterOptions): Router {
 
   router.post('/exams/:id/countersign', attendings, async (req, res) => {
     const { exam, signature } = await countersignExam(user(res), idOf(req), CountersignInputSchema.parse(bodyOf(req)))
-    await notifier(req).countersigned(exam, signature)
+    await notifier.countersigned(exam, signature)
     res.json(exam)
   })
   router.post('/exams/:id/return', attendings, async (req, res) => {
     const exam = await returnExam(user(res), idOf(req), ReturnInputSchema.parse(bodyOf(req)))
-    await notifier(req).returned(exam, user(res))
+    await notifier.returned(exam, user(res))
     res.json(exam)
   })
   router.post('/exams/:id/amend', requireRole('resident', 'attending'), async (req, res) =>

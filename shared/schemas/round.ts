@@ -58,6 +58,11 @@ export const RoundSummarySchema = z.object({
   examiners: z.array(RoundPersonSchema),
   recorded: z.number().int(),
   expected: z.number().int(),
+  /**
+   * Whether the patient codes in this response (and in every other response about the round) are keyed pseudonyms
+   * (`P-xxxxxxxx`): true for anyone who is not one of the round's examiners, e.g. its educator, as for exams (§2).
+   */
+  codesMasked: z.boolean(),
 })
 export type RoundSummary = z.infer<typeof RoundSummarySchema>
 
@@ -66,7 +71,8 @@ export const RoundListSchema = z.object({ rounds: z.array(RoundSummarySchema) })
 /**
  * One cell of the progress grid. `recorded`: a submitted (non-draft) exam; `draft`: only a draft, shown to its author
  * alone; `missing`: nothing yet. The exam id and the height are shown to the entry's author, and to everyone in the
- * round once it is closed; before that they are null (blinding).
+ * round once it is closed; before that they are null (blinding). The exam id also only where the viewer may read
+ * that exam, with its code shown as the round shows it (so a code and its pseudonym are never seen side by side).
  */
 export const RoundEntrySchema = z.object({
   examinerId: z.string(),
@@ -132,6 +138,8 @@ export const RoundResultsSchema = z.object({
   patientCodes: z.array(z.string()),
   examiners: z.array(RoundPersonSchema),
   heights: z.array(z.array(z.number().nullable())),
+  /** As on the summary: the codes above are pseudonyms for anyone who is not one of the round's examiners. */
+  codesMasked: z.boolean(),
   caution: z.string(),
 })
 export type RoundResults = z.infer<typeof RoundResultsSchema>

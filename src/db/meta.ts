@@ -33,9 +33,25 @@ export async function loadProfile(): Promise<User | null> {
 
 const SETTINGS_KEY = 'settings'
 
-/** Keeps the settings in force, so estimates on this device use them offline too. */
+const settingsVersionKey = (version: number) => `settings-version:${version}`
+
+/** Keeps the settings in force, so estimates on this device use them offline too (and, by number, for past estimates). */
 export async function saveSettingsCopy(settings: SettingsVersion): Promise<void> {
-  await db.meta.put({ key: SETTINGS_KEY, value: JSON.parse(JSON.stringify(settings)) })
+  const value = JSON.parse(JSON.stringify(settings))
+  await db.meta.bulkPut([
+    { key: SETTINGS_KEY, value },
+    { key: settingsVersionKey(settings.version), value },
+  ])
+}
+
+/** Keeps one version by number (versions never change once saved), so past estimates read offline too. */
+export async function saveSettingsVersionCopy(settings: SettingsVersion): Promise<void> {
+  await db.meta.put({ key: settingsVersionKey(settings.version), value: JSON.parse(JSON.stringify(settings)) })
+}
+
+export async function loadSettingsVersionCopy(version: number): Promise<SettingsVersion | null> {
+  const parsed = SettingsVersionSchema.safeParse((await db.meta.get(settingsVersionKey(version)))?.value)
+  return parsed.success && parsed.data.version === version ? parsed.data : null
 }
 
 export async function loadSettingsCopy(): Promise<SettingsVersion | null> {

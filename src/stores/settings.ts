@@ -10,7 +10,7 @@ import {
   type SettingsVersion,
 } from '#shared/schemas/settings'
 import { fetchSettings, fetchSettingsHistory, fetchSettingsVersion, saveSettings } from '@/api/settings'
-import { loadSettingsCopy, saveSettingsCopy } from '@/db/meta'
+import { loadSettingsCopy, loadSettingsVersionCopy, saveSettingsCopy, saveSettingsVersionCopy } from '@/db/meta'
 
 // Device-wide, outside any one store instance: the live estimate, the device's copies of saved exams and new drafts
 // are computed in plain modules that read these; the store below is how the app loads and changes them.
@@ -32,17 +32,49 @@ export function defaultOffsetModelInUse(): OffsetModel {
   return inUse.value?.values.defaultOffsetModel ?? DEFAULT_APP_SETTINGS.defaultOffsetModel
 }
 
-/** The estimate settings of a given version when this device knows them, else those in use. */
-export function estimateSettingsFor(version: number | undefined): EstimateSettings {
-  return (version !== undefined && olderVersions.value[version]?.estimate) || estimateSettingsInUse()
+/**
+ * The settings of a given version when this device knows them exactly, else undefined (never those of another
+ * version: a past estimate must not be labelled with limits it was not judged by). Version 1 is the defaults.
+ */
+export function settingsOfVersion(version: number): AppSettings | undefined {
+  if (inUse.value?.version === version) return inUse.value.values
+  // The server seeds version 1 with the defaults (migration 2026.12.07T11.00.00.settings), so it needs no fetch.
+  return olderVersions.value[version] ?? (version === 1 ? DEFAULT_APP_SETTINGS : undefined)
 }
 
-/** Fetches an older version once, so a past estimate's comparisons use the values it was computed with. */
-export async function ensureSettingsVersion(version: number | undefined): Promise<void> {
-  // Nothing to ask while this device has received no settings (signed out, never online): the defaults apply.
-  if (version === undefined || !inUse.value || version === inUse.value.version || olderVersions.value[version]) return
-  const fetched = await fetchSettingsVersion(version).catch(() => null)
-  if (fetched) olderVersions.value = { ...olderVersions.value, [version]: fetched.values }
+/** The estimate settings of a given version when this device knows them exactly, else undefined. */
+export function estimateSettingsFor(version: number): EstimateSettings | undefined {
+  return settingsOfVersion(version)?.estimate
+}
+
+const pending = new Map<number, Promise<void>>()
+
+/**
+ * Makes a past version known on this device: from the copy kept on the device, else from the server (then kept on
+ * the device for offline use). Failing quietly: the version then stays unknown and screens show no limits.
+ */
+export function ensureSettingsVersion(version: number | undefined): Promise<void> {
+  if (version === undefined || settingsOfVersion(version)) return Promise.resolve()
+  const running = pending.get(version)
+  if (running) return running
+  const done = (async () => {
+    const kept = await loadSettingsVersionCopy(version).catch(() => null)
+    if (kept) return remember(kept)
+    // Nothing to ask while this device has received no settings (signed out, never online).
+    if (!inUse.value) return
+    const fetched = await Promise.resolve()
+      .then(() => fetchSettingsVersion(version))
+      .catch(() => null)
+    if (!fetched || fetched.version !== version) return
+    remember(fetched)
+    await saveSettingsVersionCopy(fetched).catch(() => undefined)
+  })().finally(() => pending.delete(version))
+  pending.set(version, done)
+  return done
+}
+
+function remember(settings: SettingsVersion) {
+  olderVersions.value = { ...olderVersions.value, [settings.version]: settings.values }
 }
 
 export const useSettingsStore = defineStore('settings', () => {
@@ -55,7 +87,7 @@ export const useSettingsStore = defineStore('settings', () => {
 
   function keep(settings: SettingsVersion) {
     inUse.value = settings
-    olderVersions.value = { ...olderVersions.value, [settings.version]: settings.values }
+    remember(settings)
   }
 
   /** After sign-in: the device's copy at once, then the server's, which is kept for offline use. */

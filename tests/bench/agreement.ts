@@ -123,7 +123,7 @@ try {
   const seeding = performance.now()
   const anyExamId = await sequelize.transaction((transaction) => insertPairs(staff, transaction))
   console.log(`Inserted ${2 * PAIRS} exams (${PAIRS} pairs) in ${((performance.now() - seeding) / 1000).toFixed(1)} s`)
-  const server = createApp({ secret: SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false }).listen(0, '127.0.0.1')
+  const server = createApp({ secret: SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false , baseUrl: 'https://plumbline.test' }).listen(0, '127.0.0.1')
   await new Promise((resolve) => server.once('listening', resolve))
   const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
   const auth = `Bearer ${signAccessToken(SECRET, { sub: staff.educator.id, roles: ['educator'] })}`

@@ -1,32 +1,21 @@
 import { randomUUID } from 'node:crypto'
-import type { Browser, Page } from 'playwright-core'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { launchChromium, signInAs, startDemoServer } from './browser.ts'
+import type { Page } from 'playwright-core'
+import { describe, expect, it } from 'vitest'
+import { signInAs, useDemoBrowser } from './browser.ts'
 
 // Sign-in hashes a password and first visits load lazy chunks on a shared 2-core machine: wait generously.
 const WAIT = { timeout: 15_000 }
 
-let server: Awaited<ReturnType<typeof startDemoServer>>
-let browser: Browser
-
-beforeAll(async () => {
-  server = await startDemoServer()
-  browser = await launchChromium()
-})
-
-afterAll(async () => {
-  await browser?.close()
-  await server?.close()
-})
+const demo = useDemoBrowser()
 
 async function freshPage(width = 1280): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width, height: 800 } })
+  const context = await demo.browser.newContext({ viewport: { width, height: 800 } })
   return context.newPage()
 }
 
 /** Opens the admin Mailbox screen until the message with this subject has arrived, and returns its text. */
 async function readMail(page: Page, subject: string): Promise<string> {
-  await page.goto(`${server.url}/admin/mailbox`)
+  await page.goto(`${demo.server.url}/admin/mailbox`)
   const message = page.getByTestId('mail-message').filter({ hasText: subject })
   await expect
     .poll(async () => {
@@ -45,10 +34,10 @@ describe('inviting a person in Chromium', () => {
   it('the admin invites, the invitation arrives in the demo mailbox, its link sets a password, and the person signs in', async () => {
     const email = `new.resident.${randomUUID().slice(0, 6)}@saltmarsh.test`
     const admin = await freshPage()
-    await signInAs(admin, server.url, 'admin@saltmarsh.test')
+    await signInAs(admin, demo.server.url, 'admin@saltmarsh.test')
     await admin.getByTestId('nav-accounts').waitFor(WAIT)
 
-    await admin.goto(`${server.url}/admin/accounts`)
+    await admin.goto(`${demo.server.url}/admin/accounts`)
     await admin.getByTestId('account-invite').click()
     await admin.getByTestId('account-email').locator('input').fill(email)
     await admin.getByTestId('account-display-name').locator('input').fill('Dr Ada Okonkwo')
@@ -83,7 +72,7 @@ describe('inviting a person in Chromium', () => {
     await expect.poll(() => person.getByRole('heading', { name: /Dr Ada Okonkwo/ }).isVisible(), WAIT).toBe(true)
 
     // Back on the admin screen the account is no longer "invited".
-    await admin.goto(`${server.url}/admin/accounts`)
+    await admin.goto(`${demo.server.url}/admin/accounts`)
     await admin.getByTestId('account-search').locator('input').fill('Okonkwo')
     await expect.poll(() => admin.getByTestId('account-table').innerText(), WAIT).toMatch(/Dr Ada Okonkwo[\s\S]*Active/)
     await admin.context().close()
@@ -92,7 +81,7 @@ describe('inviting a person in Chromium', () => {
 
   it('"Forgot password?" leads to a request form that answers neutrally', async () => {
     const page = await freshPage(360)
-    await page.goto(`${server.url}/sign-in`)
+    await page.goto(`${demo.server.url}/sign-in`)
 
     await page.getByTestId('sign-in-forgot').click()
     await page.getByTestId('password-reset-email').locator('input').fill('nobody@saltmarsh.test')

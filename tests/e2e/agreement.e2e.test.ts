@@ -1,6 +1,6 @@
-import type { Browser, Page } from 'playwright-core'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { launchChromium, signInAs, startDemoServer } from './browser.ts'
+import type { Page } from 'playwright-core'
+import { describe, expect, it } from 'vitest'
+import { signInAs, useDemoBrowser } from './browser.ts'
 
 const EDUCATOR = 'educator@saltmarsh.test'
 const CAUTION_START = 'Estimate from physical examination, with a wide error band.'
@@ -8,25 +8,14 @@ const CAUTION_START = 'Estimate from physical examination, with a wide error ban
 // Sign-in hashes a password and the dashboard's lazy chunk holds chart.js: allow a busy machine time.
 const WAIT = { timeout: 15_000 }
 
-let server: Awaited<ReturnType<typeof startDemoServer>>
-let browser: Browser
-
-beforeAll(async () => {
-  server = await startDemoServer()
-  browser = await launchChromium()
-})
-
-afterAll(async () => {
-  await browser?.close()
-  await server?.close()
-})
+const demo = useDemoBrowser()
 
 async function openDashboard(width: number, height: number): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width, height } })
+  const context = await demo.browser.newContext({ viewport: { width, height } })
   const page = await context.newPage()
-  await signInAs(page, server.url, EDUCATOR)
+  await signInAs(page, demo.server.url, EDUCATOR)
   await expect.poll(() => new URL(page.url()).pathname, WAIT).not.toBe('/sign-in')
-  await page.goto(`${server.url}/agreement`)
+  await page.goto(`${demo.server.url}/agreement`)
   await expect.poll(() => page.getByTestId('bland-altman-caption').isVisible(), WAIT).toBe(true)
   return page
 }
@@ -43,9 +32,9 @@ function drawnPixels(page: Page, selector: string) {
 
 describe('the agreement dashboard in Chromium', () => {
   it('the demo educator opens it from the menu and sees the Bland–Altman plot and the residents under-reading', async () => {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } })
+    const context = await demo.browser.newContext({ viewport: { width: 1280, height: 900 } })
     const page = await context.newPage()
-    await signInAs(page, server.url, EDUCATOR)
+    await signInAs(page, demo.server.url, EDUCATOR)
 
     await expect.poll(() => page.getByTestId('nav-agreement').isVisible(), WAIT).toBe(true)
     await page.getByTestId('nav-agreement').click()

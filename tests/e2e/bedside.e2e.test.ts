@@ -1,22 +1,11 @@
-import type { Browser, Page } from 'playwright-core'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { launchChromium, signInAs, startDemoServer } from './browser.ts'
+import type { Page } from 'playwright-core'
+import { describe, expect, it } from 'vitest'
+import { signInAs, useDemoBrowser } from './browser.ts'
 
-let server: Awaited<ReturnType<typeof startDemoServer>>
-let browser: Browser
-
-beforeAll(async () => {
-  server = await startDemoServer()
-  browser = await launchChromium()
-})
-
-afterAll(async () => {
-  await browser?.close()
-  await server?.close()
-})
+const demo = useDemoBrowser()
 
 async function phonePage() {
-  const context = await browser.newContext({ viewport: { width: 360, height: 740 }, hasTouch: true, isMobile: true })
+  const context = await demo.browser.newContext({ viewport: { width: 360, height: 740 }, hasTouch: true, isMobile: true })
   return context.newPage()
 }
 
@@ -42,9 +31,9 @@ function fetchExamInPage(page: Page, id: string) {
 describe('recording the bedside exam on a phone in Chromium', () => {
   it('the resident records the worked example, survives a reload mid-flow, sees 13.7 cmH₂O and saves it to the log', async () => {
     const page = await phonePage()
-    await signInAs(page, server.url, 'resident@saltmarsh.test')
+    await signInAs(page, demo.server.url, 'resident@saltmarsh.test')
     await expect.poll(() => new URL(page.url()).pathname, WAIT).toBe('/')
-    await page.goto(`${server.url}/record`)
+    await page.goto(`${demo.server.url}/record`)
     await expect.poll(() => title(page), WAIT).toBe('Patient and position')
 
     await page.getByTestId('patient-code').locator('input').fill('SM-0142')
@@ -82,7 +71,7 @@ describe('recording the bedside exam on a phone in Chromium', () => {
     expect(saved.body).toMatchObject({ id: examId, patientCode: 'SM-0142', inclinationDeg: 45, heightCm: 4, status: 'draft' })
     expect(saved.body.estimate.cvpCmH2O).toBeCloseTo(13.7, 5)
 
-    await page.goto(`${server.url}/exams`)
+    await page.goto(`${demo.server.url}/exams`)
 
     await expect.poll(() => page.locator(`a[href="/exams/${examId}"]`).first().isVisible(), WAIT).toBe(true)
     await page.context().close()

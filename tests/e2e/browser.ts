@@ -2,6 +2,7 @@ import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import path from 'node:path'
 import { chromium, type Browser, type Page } from 'playwright-core'
+import { afterAll, beforeAll } from 'vitest'
 import { loadConfig } from '../../server/config.ts'
 import { startServer, type RunningServer } from '../../server/index.ts'
 
@@ -41,4 +42,18 @@ export async function signInAs(page: Page, baseUrl: string, email: string) {
   await page.getByTestId('sign-in-email').locator('input').fill(email)
   await page.getByTestId('sign-in-password').locator('input').fill(DEMO_PASSWORD)
   await page.getByTestId('sign-in-submit').click()
+}
+
+/** The demo server and a Chromium for one test file: started before its tests, closed after them. */
+export function useDemoBrowser(): { readonly server: Awaited<ReturnType<typeof startDemoServer>>; readonly browser: Browser } {
+  const demo = {} as { server: Awaited<ReturnType<typeof startDemoServer>>; browser: Browser }
+  beforeAll(async () => {
+    demo.server = await startDemoServer()
+    demo.browser = await launchChromium()
+  })
+  afterAll(async () => {
+    await demo.browser?.close()
+    await demo.server?.close()
+  })
+  return demo
 }

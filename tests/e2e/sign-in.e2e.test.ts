@@ -1,22 +1,10 @@
-import type { Browser } from 'playwright-core'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { launchChromium, signInAs, startDemoServer } from './browser.ts'
+import { describe, expect, it } from 'vitest'
+import { signInAs, useDemoBrowser } from './browser.ts'
 
-let server: Awaited<ReturnType<typeof startDemoServer>>
-let browser: Browser
-
-beforeAll(async () => {
-  server = await startDemoServer()
-  browser = await launchChromium()
-})
-
-afterAll(async () => {
-  await browser?.close()
-  await server?.close()
-})
+const demo = useDemoBrowser()
 
 async function freshPage() {
-  const context = await browser.newContext({ viewport: { width: 1280, height: 800 } })
+  const context = await demo.browser.newContext({ viewport: { width: 1280, height: 800 } })
   return context.newPage()
 }
 
@@ -24,7 +12,7 @@ describe('signing in with the demo accounts in Chromium', () => {
   it('the resident sees the demo ribbon and the resident navigation, then signs out', async () => {
     const page = await freshPage()
 
-    await signInAs(page, server.url, 'resident@saltmarsh.test')
+    await signInAs(page, demo.server.url, 'resident@saltmarsh.test')
 
     await expect.poll(() => page.getByTestId('nav-teams').isVisible()).toBe(true)
     await expect.poll(() => page.getByTestId('demo-ribbon').isVisible()).toBe(true)
@@ -35,7 +23,7 @@ describe('signing in with the demo accounts in Chromium', () => {
     await page.getByTestId('sign-out').click()
 
     await expect.poll(() => new URL(page.url()).pathname).toBe('/sign-in')
-    await page.goto(`${server.url}/teams`)
+    await page.goto(`${demo.server.url}/teams`)
     await expect.poll(() => new URL(page.url()).pathname).toBe('/sign-in')
     await page.context().close()
   })
@@ -49,7 +37,7 @@ describe('signing in with the demo accounts in Chromium', () => {
   ])('%s sees only its role navigation', async (email, shown, hidden) => {
     const page = await freshPage()
 
-    await signInAs(page, server.url, email)
+    await signInAs(page, demo.server.url, email)
 
     await expect.poll(() => page.getByTestId(`nav-${shown[1]}`).isVisible()).toBe(true)
     for (const name of shown) expect(await page.getByTestId(`nav-${name}`).isVisible()).toBe(true)
@@ -59,7 +47,7 @@ describe('signing in with the demo accounts in Chromium', () => {
 
   it('a wrong password shows a message and keeps the typed e-mail', async () => {
     const page = await freshPage()
-    await page.goto(`${server.url}/sign-in`)
+    await page.goto(`${demo.server.url}/sign-in`)
     await page.getByTestId('sign-in-email').locator('input').fill('resident@saltmarsh.test')
     await page.getByTestId('sign-in-password').locator('input').fill('wrong-password')
 

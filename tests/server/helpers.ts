@@ -20,7 +20,14 @@ export async function makeTestApp(overrides: Partial<AppDeps> = {}) {
   const sequelize = openDatabase(':memory:')
   initModels(sequelize)
   await createMigrator(sequelize).up()
-  const app = createApp({ secret: TEST_SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false, ...overrides })
+  const app = createApp({
+    secret: TEST_SECRET,
+    log: pino({ level: 'silent' }),
+    demo: false,
+    cookieSecure: false,
+    ...overrides,
+    baseUrl: overrides.baseUrl ?? 'https://plumbline.test',
+  })
   return { app, sequelize }
 }
 

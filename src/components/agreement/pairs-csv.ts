@@ -1,4 +1,5 @@
 import Papa from 'papaparse'
+import { FORMULA_START } from '#shared/domain/csv-safety'
 import { CAUTION_TEXT } from '#shared/domain/interpretation'
 import type { AgreementPair, PairReading } from '#shared/schemas/agreement'
 
@@ -9,7 +10,7 @@ const READING_COLUMNS = ['exam_id', 'examiner', 'role', 'team', 'examined_at', '
  * `patient_code` (masked for educators, as on screen), `difference_order` (`resident-minus-attending` or
  * `earlier-minus-later`), `difference_cm` (first − second height above the sternal angle), `mean_cm`, `minutes_apart`,
  * then for the `first_` and `second_` reading of the difference: exam id, examiner's name, role, team, time (ISO 8601,
- * UTC), height (cm), trunk inclination (°), vein, CVP category (low/normal/high) and elevated (h > 3 cm: true/false).
+ * UTC), height (cm), trunk inclination (°), vein, CVP category (low/normal/high) and elevated (h > 3 cm, the default of §4.6, by which agreement judges both readings alike: true/false).
  */
 export const PAIR_CSV_COLUMNS = [
   'patient_code',
@@ -45,7 +46,7 @@ export function pairsCsv(pairs: readonly AgreementPair[], teamName: (id: string)
     ...readingCells(p.second, teamName),
   ])
   const caution = [CSV_CAUTION, ...new Array<string>(PAIR_CSV_COLUMNS.length - 1).fill('')]
-  return Papa.unparse({ fields: PAIR_CSV_COLUMNS, data: [...rows, caution] }, { escapeFormulae: true, newline: '\r\n' })
+  return Papa.unparse({ fields: PAIR_CSV_COLUMNS, data: [...rows, caution] }, { escapeFormulae: FORMULA_START, newline: '\r\n' })
 }
 
 /** Saves text as a file through a temporary link; a byte-order mark lets spreadsheets read the UTF-8 names right. */

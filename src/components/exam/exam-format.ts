@@ -27,10 +27,38 @@ export const BOUND_WORDING: Record<Bound, { prefix: string; explanation: string 
 
 export const CATEGORY_LABELS: Record<CvpCategory, string> = { low: 'Low CVP (< 5)', normal: 'Normal CVP (5–10)', high: 'High CVP (> 10)' }
 
-/** A category with the limits of the settings it was judged by. */
-export function categoryLabel(category: CvpCategory, settings: EstimateSettings = DEFAULT_ESTIMATE_SETTINGS): string {
+/**
+ * A category with the limits of the settings it was judged by; `null` when those settings are not known on this
+ * device, and then without limits (the stored category stands, but no other version's limits may be put beside it).
+ */
+export function categoryLabel(category: CvpCategory, settings: EstimateSettings | null = DEFAULT_ESTIMATE_SETTINGS): string {
+  if (!settings) return { low: 'Low CVP', normal: 'Normal CVP', high: 'High CVP' }[category]
   const [low, high] = [formatLimit(settings.lowBelowCmH2O), formatLimit(settings.highAboveCmH2O)]
   return { low: `Low CVP (< ${low})`, normal: `Normal CVP (${low}–${high})`, high: `High CVP (> ${high})` }[category]
+}
+
+/** Short names of the estimate settings, as a note on a past estimate lists those changed since. */
+const ESTIMATE_SETTING_NAMES: Record<keyof EstimateSettings, string> = {
+  elevatedAboveCm: 'elevated-JVP threshold',
+  lowBelowCmH2O: 'low-CVP threshold',
+  highAboveCmH2O: 'high-CVP threshold',
+  minVenousSigns: 'venous-sign count',
+  sigmaReadRulerCm: 'error band',
+  sigmaReadVisualCm: 'error band',
+  sigmaOffsetCm: 'error band',
+  sigmaOffsetOutsideRangeCm: 'error band',
+  sigmaObserverCm: 'error band',
+}
+
+/** The names of the estimate settings that differ between two versions, each once, in a fixed order; empty when none. */
+export function estimateSettingsChanged(then: EstimateSettings, now: EstimateSettings): string[] {
+  const keys = Object.keys(ESTIMATE_SETTING_NAMES) as (keyof EstimateSettings)[]
+  return [...new Set(keys.filter((key) => then[key] !== now[key]).map((key) => ESTIMATE_SETTING_NAMES[key]))]
+}
+
+/** A list in words: "a", "a and b", "a, b and c". */
+export function listInWords(items: string[]): string {
+  return items.length < 2 ? (items[0] ?? '') : `${items.slice(0, -1).join(', ')} and ${items.at(-1)}`
 }
 
 /** A threshold as written in labels: whole numbers without a decimal. */

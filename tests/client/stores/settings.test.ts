@@ -5,7 +5,7 @@ import { liveEstimate, parseDraft } from '@/components/bedside/bedside-steps'
 import { db } from '@/db'
 import { newDraft } from '@/db/draft-schema'
 import { localExamOf } from '@/db/local-exams'
-import { loadSettingsCopy } from '@/db/meta'
+import { loadSettingsCopy, loadSettingsVersionCopy } from '@/db/meta'
 import { estimateSettingsFor, ensureSettingsVersion, useSettingsStore } from '@/stores/settings'
 import * as api from '@/api/settings'
 import { makeDraft, WORKED_EXAMPLE } from '../factories/draft'
@@ -87,17 +87,66 @@ describe('settings store', () => {
     expect(after).toBe('fixed-5cm')
   })
 
-  it('fetches an older version once to read a past estimate with its own thresholds', async () => {
+  it('fetches an older version once to read a past estimate with its own thresholds, and keeps it on the device', async () => {
+    vi.mocked(api.fetchSettings).mockResolvedValue(version(3))
+    vi.mocked(api.fetchSettingsVersion).mockResolvedValue(RAISED)
+    await useSettingsStore().load()
+
+    await Promise.all([ensureSettingsVersion(2), ensureSettingsVersion(2)])
+    await ensureSettingsVersion(2)
+
+    expect(api.fetchSettingsVersion).toHaveBeenCalledTimes(1)
+    expect(estimateSettingsFor(2)?.highAboveCmH2O).toBe(15)
+    expect(estimateSettingsFor(3)?.highAboveCmH2O).toBe(10)
+    expect(await loadSettingsVersionCopy(2)).toEqual(RAISED)
+  })
+
+  it('offline, a version fetched before comes from the device', async () => {
+    vi.mocked(api.fetchSettings).mockResolvedValue(version(3))
+    vi.mocked(api.fetchSettingsVersion).mockResolvedValue(RAISED)
+    await useSettingsStore().load()
+    await ensureSettingsVersion(2)
+    useSettingsStore().forget()
+    vi.mocked(api.fetchSettings).mockImplementation(offline)
+    vi.mocked(api.fetchSettingsVersion).mockReset().mockImplementation(offline)
+
+    await useSettingsStore().load()
+    await ensureSettingsVersion(2)
+
+    expect(api.fetchSettingsVersion).not.toHaveBeenCalled()
+    expect(estimateSettingsFor(2)?.highAboveCmH2O).toBe(15)
+  })
+
+  it('a version once in force is kept on the device by number, for past estimates after it is replaced', async () => {
     vi.mocked(api.fetchSettings).mockResolvedValue(RAISED)
-    vi.mocked(api.fetchSettingsVersion).mockResolvedValue(version(1))
+    await useSettingsStore().load()
+    vi.mocked(api.fetchSettings).mockResolvedValue(version(3))
+    await useSettingsStore().load()
+
+    expect(await loadSettingsVersionCopy(2)).toEqual(RAISED)
+    expect(await loadSettingsCopy()).toEqual(version(3))
+  })
+
+  it('a version not known on this device is undefined, never the settings in force, also when the fetch fails', async () => {
+    vi.mocked(api.fetchSettings).mockResolvedValue(RAISED)
+    vi.mocked(api.fetchSettingsVersion).mockImplementation(offline)
+    await useSettingsStore().load()
+
+    await ensureSettingsVersion(4)
+
+    expect(api.fetchSettingsVersion).toHaveBeenCalledWith(4)
+    expect(estimateSettingsFor(4)).toBeUndefined()
+  })
+
+  it('version 1 is the defaults, known without a fetch', async () => {
+    vi.mocked(api.fetchSettings).mockResolvedValue(RAISED)
     await useSettingsStore().load()
 
     await ensureSettingsVersion(1)
-    await ensureSettingsVersion(1)
 
-    expect(api.fetchSettingsVersion).toHaveBeenCalledTimes(1)
-    expect(estimateSettingsFor(1).highAboveCmH2O).toBe(10)
-    expect(estimateSettingsFor(2).highAboveCmH2O).toBe(15)
+    expect(api.fetchSettingsVersion).not.toHaveBeenCalled()
+    // McGee 1998: elevated above 3 cm; Cook 1990 categories: high above 10 cmH₂O.
+    expect(estimateSettingsFor(1)).toMatchObject({ elevatedAboveCm: 3, highAboveCmH2O: 10 })
   })
 
   it('a save answered as stale takes the newer version as current', async () => {

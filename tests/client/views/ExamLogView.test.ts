@@ -58,6 +58,7 @@ describe('ExamLogView', () => {
     expect(row.text()).toContain('4.0')
     expect(row.text()).toContain('13.7')
     expect(row.text()).toContain('9.2–18.2')
+    expect(wrapper.find('[data-testid="export-csv"]').exists()).toBe(true)
   })
 
   it('when a patient code is typed, asks the server for that code from the first page', async () => {
@@ -134,6 +135,8 @@ describe('ExamLogView', () => {
     const { wrapper } = await mountLog()
 
     await vi.waitFor(() => expect(wrapper.find('[data-testid="log-from-device"]').text()).toContain('kept on this device'))
+    // The CSV is made by the server, so the download is not offered while the list comes from the device.
+    expect(wrapper.find('[data-testid="export-csv"]').exists()).toBe(false)
   })
 
   it('offline, says the list comes from this device and when it last synced, and marks exams not yet sent', async () => {

@@ -99,6 +99,34 @@ describe('RoundDetailView', () => {
     expect(wrapper.find('[data-testid="round-close"]').exists()).toBe(false)
   })
 
+  it('to its educator the codes arrive as pseudonyms: the grid and the missing entries show them, with a note saying so', async () => {
+    const codes = ['P-1a2b3c4d', 'P-5e6f7a8b']
+    vi.mocked(roundsApi.fetchRound).mockResolvedValue(makeRound({ status: 'closed', patientCodes: codes, codesMasked: true }))
+    vi.mocked(roundsApi.fetchRoundResults).mockResolvedValue(
+      makeResults({
+        patientCodes: codes,
+        incompleteCodes: [codes[1]!],
+        missing: { count: 1, entries: [{ examinerId: 'ex-2', examinerName: 'Dr Aiko Brennan', patientCode: codes[1]!, reason: 'not-recorded' }] },
+        codesMasked: true,
+      }),
+    )
+
+    const wrapper = await mountDetail()
+
+    expect(wrapper.find('[data-testid="round-codes-masked-note"]').text()).toContain('masked')
+    expect(wrapper.find('[data-testid="round-grid"]').text()).toContain('P-1a2b3c4d')
+    expect(wrapper.find('[data-testid="round-missing-list"]').text()).toContain('P-5e6f7a8b — Dr Aiko Brennan')
+  })
+
+  it('an examiner (real codes) sees no note about masking', async () => {
+    vi.mocked(roundsApi.fetchRound).mockResolvedValue(makeRound({ isExaminer: true, codesMasked: false }))
+
+    const wrapper = await mountDetail('ex-1')
+
+    expect(wrapper.find('[data-testid="round-grid"]').text()).toContain('SM-0311')
+    expect(wrapper.find('[data-testid="round-codes-masked-note"]').exists()).toBe(false)
+  })
+
   it('an examiner who may not close it is not offered the button', async () => {
     vi.mocked(roundsApi.fetchRound).mockResolvedValue(makeRound({ isExaminer: true }))
 

@@ -20,6 +20,7 @@ export function makeRound(overrides: Partial<RoundDetail> = {}): RoundDetail {
     examiners,
     recorded: 0,
     expected: patientCodes.length * examiners.length,
+    codesMasked: false,
     entries: patientCodes.flatMap((patientCode) =>
       examiners.map((e) => ({ examinerId: e.id, patientCode, state: 'missing' as const, examId: null, heightCm: null })),
     ),
@@ -52,6 +53,7 @@ export function makeResults(overrides: Partial<RoundResults> = {}): RoundResults
       [2, 3],
       [4, null],
     ],
+    codesMasked: false,
     caution: CAUTION_TEXT,
     ...overrides,
   }

@@ -90,6 +90,7 @@ describe('RoundsView', () => {
     await flushPromises()
 
     const dialog = document.querySelector('[data-testid="round-create-dialog"]')!.textContent!
+    expect(document.querySelector('[data-testid="round-codes-masked-help"]')!.textContent).toMatch(/Once the round is saved, you see its patient codes masked/)
     expect(dialog).toContain('Name the round')
     expect(dialog).toContain('Name at least one patient code')
     expect(dialog).toContain('at least two examiners')

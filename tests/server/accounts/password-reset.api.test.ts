@@ -31,6 +31,17 @@ describe('POST /api/auth/password-reset', () => {
     expect(events.map((e) => e.changes).join()).not.toContain('nobody')
   })
 
+  it('builds the link on the configured address, never on the Host header the caller sent', async () => {
+    const { app, delivered } = await appWithMail()
+    await makeUser({ email: 'victim@saltmarsh.test' })
+
+    await request(app).post('/api/auth/password-reset').set('Host', 'attacker.example').send({ email: 'victim@saltmarsh.test' })
+    const [message] = await delivered()
+
+    expect(message!.text).toContain(`${BASE_URL}/reset-password#token=`)
+    expect(message!.text).not.toContain('attacker.example')
+  })
+
   it('sends nothing to a deactivated account, and still answers the same', async () => {
     const { app, delivered } = await appWithMail()
     await makeUser({ email: 'gone@saltmarsh.test', active: false, withPassword: false })

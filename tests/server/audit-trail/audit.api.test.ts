@@ -82,6 +82,32 @@ describe('GET /api/audit', () => {
     expect(page!.events[0]!.changes!.patientCode).toEqual({ from: null, to: expect.stringMatching(/^P-[0-9a-f]{8}$/) })
   })
 
+  it('masks a calibration round’s list of patient codes (round-create) with the same pseudonyms as exams', async () => {
+    const admin = await makeCaller({ roles: ['admin'] })
+    const team = await makeTeam()
+    const educator = await makeCaller({ roles: ['educator'] })
+    const examiners = await Promise.all([0, 1].map(() => makeCaller({ roles: ['resident'], teamIds: [team.id] })))
+    const created = await request(app)
+      .post('/api/rounds')
+      .set('Authorization', educator.auth)
+      .send({ name: 'Round of SM-0411', patientCodes: ['SM-0411', 'SM-0412'], examinerIds: examiners.map((e) => e.user.id) })
+    expect(created.status).toBe(201)
+    await recordExam(app, examiners[0]!.auth, { teamId: team.id, patientCode: 'SM-0411' })
+
+    const { res, page } = await browse(admin.auth, { action: 'round-create' })
+    const exams = await browse(admin.auth, { action: 'exam-create' })
+
+    const body = JSON.stringify(res.body).toUpperCase()
+    expect(body).not.toContain('SM-0411')
+    expect(body).not.toContain('SM-0412')
+    const change = page!.events[0]!.changes!.patientCodes as { from: unknown; to: string[] }
+    expect(change.from).toBeNull()
+    expect(change.to).toEqual([expect.stringMatching(/^P-[0-9a-f]{8}$/), expect.stringMatching(/^P-[0-9a-f]{8}$/)])
+    expect(change.to[0]).not.toBe(change.to[1])
+    // The pseudonym is the one the exam's own event shows, so the trail stays consistent across entities.
+    expect((exams.page!.events[0]!.changes!.patientCode as { to: string }).to).toBe(change.to[0])
+  })
+
   it('answers 400 when the range ends before it starts', async () => {
     const admin = await makeCaller({ roles: ['admin'] })
 

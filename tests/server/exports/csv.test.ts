@@ -108,6 +108,7 @@ describe('GET /api/exports/exams.csv', () => {
     })
     // NIST SP 811 (2008) App. B.8 → 1.35951 cmH₂O per mmHg (PRODUCT.md §4); dot decimals
     expect(Number(rows[0]!.cvp_mmhg)).toBeCloseTo(13.7 / 1.35951, 2)
+    // PRODUCT.md §4 band with the default error terms: ±1.96·√(0.5² + 1.0² + 2.0²) = ±1.96·√5.25 around 13.7.
     expect(Number(rows[0]!.band_low_cmh2o)).toBeCloseTo(13.7 - 1.96 * Math.sqrt(5.25), 2)
     expect(Number(rows[0]!.band_high_cmh2o)).toBeCloseTo(13.7 + 1.96 * Math.sqrt(5.25), 2)
     expect(rows[0]!.countersignature).toMatch(/^Countersigned by Dr Tomas Lindqvist, .+; meaning: reviewed, and agrees with the findings; version \d+\.$/)

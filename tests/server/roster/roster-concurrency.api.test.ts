@@ -27,7 +27,7 @@ async function appOnFile() {
   initModels(sequelize)
   await createMigrator(sequelize).up()
   for (const name of SALTMARSH_TEAMS) await makeTeam(name)
-  return createApp({ secret: TEST_SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false })
+  return createApp({ secret: TEST_SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false , baseUrl: 'https://plumbline.test' })
 }
 
 describe('roster import: two admins applying the same file at the same moment', () => {

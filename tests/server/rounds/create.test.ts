@@ -3,7 +3,7 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import { RoundListSchema } from '#shared/schemas/round'
 import { AuditEventModel, RoundModel } from '../../../server/models/index.ts'
 import { makeCaller, makeTestApp } from '../helpers.ts'
-import { calibrationWard, codes, createRoundAs, detailAs, openRound } from './round-setup.ts'
+import { calibrationWard, codes, createRoundAs, detailAs, openRound, pseudonym } from './round-setup.ts'
 
 let app: Awaited<ReturnType<typeof makeTestApp>>['app']
 
@@ -20,7 +20,9 @@ describe('creating a calibration round (POST /api/rounds)', () => {
     expect(round.status).toBe('open')
     expect(round.name).toBe('November calibration')
     expect(round.createdBy.displayName).toBe('Dr Hana Okafor')
-    expect(round.patientCodes).toEqual(['SM-0301', 'SM-0302'])
+    // The educator typed the codes, but reads them back as pseudonyms, as for any exam (§2).
+    expect(round.patientCodes).toEqual([pseudonym('SM-0301'), pseudonym('SM-0302')])
+    expect(round.codesMasked).toBe(true)
     expect(round.examiners.map((e) => e.id)).toEqual(examiners.map((e) => e.user.id))
     expect(round.expected).toBe(6)
     expect(round.recorded).toBe(0)

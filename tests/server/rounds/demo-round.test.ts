@@ -7,6 +7,7 @@ import { makeTestApp } from '../helpers.ts'
 import { signAccessToken } from '../../../server/auth/tokens.ts'
 import { UserModel } from '../../../server/models/index.ts'
 import { TEST_SECRET } from '../helpers.ts'
+import { pseudonym } from './round-setup.ts'
 
 let app: Awaited<ReturnType<typeof makeTestApp>>['app']
 
@@ -32,7 +33,7 @@ describe('the demo’s calibration round', () => {
     expect(rounds).toHaveLength(1)
     expect(rounds[0]).toMatchObject({ status: 'closed', expected: 24, recorded: 23 })
     expect(results.completeSubjects).toBe(5)
-    expect(results.missing.entries).toEqual([expect.objectContaining({ examinerName: 'Dr Aiko Brennan', patientCode: 'SM-0316', reason: 'not-recorded' })])
+    expect(results.missing.entries).toEqual([expect.objectContaining({ examinerName: 'Dr Aiko Brennan', patientCode: pseudonym('SM-0316'), reason: 'not-recorded' })])
     expect('value' in results.icc).toBe(true)
     expect('value' in results.fleissElevated).toBe(true)
     // The residents read under the attending, so the attending's bias against the round mean is the highest.

@@ -2,7 +2,7 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import { CAUTION_TEXT } from '#shared/domain/interpretation'
 import { fleissKappa, icc } from '#shared/stats/index'
 import { makeTestApp } from '../helpers.ts'
-import { calibrationWard, closeRoundAs, codes, openRound, recordDraftEntry, recordEntry, recordMatrix, resultsAs } from './round-setup.ts'
+import { calibrationWard, closeRoundAs, codes, openRound, pseudonym, recordDraftEntry, recordEntry, recordMatrix, resultsAs } from './round-setup.ts'
 
 let app: Awaited<ReturnType<typeof makeTestApp>>['app']
 
@@ -84,14 +84,16 @@ describe('results of a closed round (GET /api/rounds/:id/results)', () => {
     const { results } = await resultsAs(app, educator.auth, round.id)
 
     // SM-0302's latest entry by examiner 3 is the unmeasured one, so SM-0300 and SM-0303 remain complete.
+    // The educator reads the codes as pseudonyms (§2).
     expect(results!.completeSubjects).toBe(2)
-    expect(results!.incompleteCodes).toEqual([subjects[1], subjects[2]])
+    expect(results!.incompleteCodes).toEqual([pseudonym(subjects[1]!), pseudonym(subjects[2]!)])
     expect(results!.missing.count).toBe(2)
     expect(results!.missing.entries).toEqual([
-      { examinerId: examiners[2]!.user.id, examinerName: 'Examiner 3', patientCode: subjects[1], reason: 'not-measured' },
-      { examinerId: examiners[0]!.user.id, examinerName: 'Examiner 1', patientCode: subjects[2], reason: 'not-recorded' },
+      { examinerId: examiners[2]!.user.id, examinerName: 'Examiner 3', patientCode: pseudonym(subjects[1]!), reason: 'not-measured' },
+      { examinerId: examiners[0]!.user.id, examinerName: 'Examiner 1', patientCode: pseudonym(subjects[2]!), reason: 'not-recorded' },
     ])
-    // Cross-checked with shared/stats on the complete rows only.
+    // Not an outside check: it shows the round feeds only its complete rows to shared/stats, whose ICC and Fleiss kappa
+    // are checked against Shrout & Fleiss 1979 and Fleiss 1971 in tests/shared/stats (and above, on the full round).
     const complete = [matrix[0]!, matrix[3]!] as number[][]
     const expectedIcc = icc(complete)
     expect(expectedIcc.ok && 'value' in results!.icc && results!.icc.value).toBeCloseTo(expectedIcc.ok ? expectedIcc.icc2.value : NaN, 12)

@@ -2,7 +2,8 @@ import request from 'supertest'
 import type { ExamInputRaw } from '#shared/schemas/exam'
 import { RoundDetailSchema, RoundResultsSchema, type RoundCreateInput } from '#shared/schemas/round'
 import { recordExam, recordSubmittedExam } from '../factories/exam.ts'
-import { makeCaller, makeTeam } from '../helpers.ts'
+import { patientCodeMask } from '../../../server/exams/exam-access.ts'
+import { makeCaller, makeTeam, TEST_SECRET } from '../helpers.ts'
 
 type App = Parameters<typeof request>[0]
 export type Caller = Awaited<ReturnType<typeof makeCaller>>
@@ -66,5 +67,8 @@ export async function detailAs(app: App, auth: string, roundId: string) {
   const res = await request(app).get(`/api/rounds/${roundId}`).set('Authorization', auth)
   return { res, round: res.status === 200 ? RoundDetailSchema.parse(res.body) : undefined }
 }
+
+/** A patient code as anyone outside the round's examiners (its educator) sees it: the server's keyed pseudonym. */
+export const pseudonym = patientCodeMask(TEST_SECRET)
 
 export const codes = (n: number, base = 300) => Array.from({ length: n }, (_, i) => `SM-${String(base + i).padStart(4, '0')}`)

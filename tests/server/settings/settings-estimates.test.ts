@@ -34,6 +34,7 @@ describe('settings and the estimates of exams (new estimates only)', () => {
     const exam = await recordExam(app, resident.auth, { teamId: team.id })
 
     expect(exam.estimate).toMatchObject({ elevated: false, category: 'normal', settingsVersion: 2 })
+    // PRODUCT.md §4 worked example (h 4 cm at 45°, Seth 2002 incline-adjusted offset): 13.7 cmH₂O, whatever the thresholds.
     expect(exam.estimate.cvpCmH2O).toBeCloseTo(13.7, 9)
   })
 

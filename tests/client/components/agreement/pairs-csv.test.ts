@@ -66,4 +66,13 @@ describe('pairsCsv: the pairs CSV download', () => {
     // Negative numbers stay numbers: only text is defused.
     expect(row[PAIR_CSV_COLUMNS.indexOf('difference_cm')]).toBe('-1')
   })
+
+  it('defuses a formula cell that goes on after a line break (OWASP, "CSV Injection")', () => {
+    const pair = makePair(3, 4)
+    pair.first.examinerName = '@SUM(1)\n=cmd'
+
+    const row = parse(pairsCsv([pair]))[1]!
+
+    expect(row[PAIR_CSV_COLUMNS.indexOf('first_examiner')]).toBe(`'@SUM(1)\n=cmd`)
+  })
 })

@@ -148,7 +148,7 @@ describe('RosterImportDialog', () => {
   })
 
   it('shows the server’s message about the file on the file field, and no preview', async () => {
-    const message = 'This file is a PNG image, not a CSV text file. In your spreadsheet, save the roster as "CSV UTF-8" and upload that file.'
+    const message = 'This file is a PNG image, not a CSV text file. In your spreadsheet, save the roster as comma-separated text in UTF-8 and upload that file.'
     vi.mocked(roster.previewRoster).mockRejectedValue(httpError(415, 'roster-not-csv', message, { file: message }))
     await openDialog()
     await chooseFile('photo.csv')
