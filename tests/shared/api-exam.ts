@@ -1,5 +1,6 @@
 import { computeEstimate } from '#shared/domain/estimate'
 import { ExamFindingsSchema, ExamSchema, type Exam } from '#shared/schemas/exam'
+import { WORKED_EXAMPLE_FINDINGS } from './worked-example.ts'
 
 let serial = 0
 
@@ -15,19 +16,7 @@ export function makeApiExam(overrides: Partial<Omit<Exam, 'estimate'>> = {}): Ex
     examinerName: 'Dr Sam Whitcombe',
     examinedAt: '2026-03-14T09:30:00.000Z',
     notes: '',
-    inclinationDeg: 45,
-    inclinationSource: 'entered',
-    vein: 'right-internal',
-    columnTop: 'seen',
-    heightMethod: 'vertical',
-    heightCm: 4,
-    readingPrecision: 'ruler',
-    offsetModel: 'incline-adjusted',
-    venousSigns: ['not-palpable', 'double-peaked', 'falls-on-inspiration'],
-    rhythm: 'sinus',
-    waveform: { aWave: 'normal', vWave: 'normal', yDescent: 'normal' },
-    respiratory: 'falls-on-inspiration',
-    abdominojugular: { done: false },
+    ...WORKED_EXAMPLE_FINDINGS,
     status: 'draft',
     version: 1,
     createdAt: '2026-03-14T09:35:00.000Z',

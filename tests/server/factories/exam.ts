@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import request from 'supertest'
 import type { Exam, ExamInputRaw } from '#shared/schemas/exam'
+import { WORKED_EXAMPLE_FINDINGS } from '../../shared/worked-example.ts'
 
 type App = Parameters<typeof request>[0]
 
@@ -12,19 +13,7 @@ export function makeExamInput(overrides: Partial<ExamInputRaw> & { teamId: strin
     id: randomUUID(),
     patientCode: 'SM-0142',
     examinedAt: new Date(Date.now() - HOUR_MS).toISOString(),
-    inclinationDeg: 45,
-    inclinationSource: 'entered',
-    vein: 'right-internal',
-    columnTop: 'seen',
-    heightMethod: 'vertical',
-    heightCm: 4,
-    readingPrecision: 'ruler',
-    offsetModel: 'incline-adjusted',
-    venousSigns: ['not-palpable', 'double-peaked', 'falls-on-inspiration'],
-    rhythm: 'sinus',
-    waveform: { aWave: 'normal', vWave: 'normal', yDescent: 'normal' },
-    respiratory: 'falls-on-inspiration',
-    abdominojugular: { done: false },
+    ...WORKED_EXAMPLE_FINDINGS,
     notes: '',
     ...overrides,
   }
