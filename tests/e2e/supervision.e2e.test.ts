@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto'
 import type { Browser, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_PASSWORD, launchChromium, signInAs, startDemoServer } from './browser.ts'
+import { WORKED_EXAMPLE_FINDINGS } from '../shared/worked-example.ts'
 
 const RESIDENT = 'resident@saltmarsh.test'
 const ATTENDING = 'attending@saltmarsh.test'
@@ -34,14 +35,7 @@ async function submitResidentExam() {
     patientCode,
     teamId: team.id,
     examinedAt: new Date().toISOString(),
-    inclinationDeg: 45,
-    vein: 'right-internal',
-    columnTop: 'seen',
-    heightMethod: 'vertical',
-    heightCm: 4,
-    readingPrecision: 'ruler',
-    offsetModel: 'incline-adjusted',
-    venousSigns: ['not-palpable', 'double-peaked', 'falls-on-inspiration'],
+    ...WORKED_EXAMPLE_FINDINGS,
   }
   const created = await fetch(`${server.url}/api/exams`, { method: 'POST', headers, body: JSON.stringify(body) })
   expect(created.status).toBe(201)
