@@ -1,11 +1,12 @@
 import { randomUUID } from 'node:crypto'
-import { Op, Transaction, type WhereOptions } from 'sequelize'
+import { Op, type Transaction, type WhereOptions } from 'sequelize'
 import type { Account, AccountPage, AccountPatch, AccountQuery, InviteInput } from '#shared/schemas/account'
 import type { Role, TeamRef, User } from '#shared/schemas/user'
 import { audit, auditAll, type AuditEntry } from '../audit.ts'
+import { writeTransaction } from '../db/transaction.ts'
 import { AppError } from '../errors.ts'
 import type { Mailer } from '../mail/mailer.ts'
-import { MembershipModel, RefreshSessionModel, TeamModel, UserModel } from '../models/index.ts'
+import { MembershipModel, RefreshSessionModel, TeamModel, UserModel, withRole } from '../models/index.ts'
 import { rolesOf } from '../users/users.service.ts'
 import { sendInvitation } from './invitations.ts'
 
@@ -57,8 +58,7 @@ export async function listAccounts(q: AccountQuery): Promise<AccountPage> {
     const contains = (column: string) => db.where(db.fn('instr', db.fn('lower', db.col(column)), needle), { [Op.gt]: 0 })
     where.push({ [Op.or]: [contains('displayName'), contains('email')] })
   }
-  // Roles are a JSON array of known names; the role itself was checked against the enum.
-  if (q.role) where.push({ roles: { [Op.like]: `%"${q.role}"%` } })
+  if (q.role) where.push(withRole(q.role))
   if (q.teamId) {
     const members = await MembershipModel.findAll({ where: { teamId: q.teamId }, attributes: ['userId'] })
     where.push({ id: { [Op.in]: members.map((m) => m.userId) } })
@@ -85,7 +85,7 @@ async function checkTeams(teamIds: string[], transaction: Transaction): Promise<
 }
 
 const write = <T>(work: (t: Transaction) => Promise<T>) =>
-  UserModel.sequelize!.transaction({ type: Transaction.TYPES.IMMEDIATE }, work)
+  writeTransaction(UserModel.sequelize!, work)
 
 export interface AccountMailOptions {
   mailer?: Mailer
@@ -101,7 +101,7 @@ export async function inviteAccount(input: InviteInput, actor: User, mail: Accou
     const teamIds = await checkTeams(input.teamIds, transaction)
     const id = randomUUID()
     await UserModel.create(
-      { id, email: input.email, displayName: input.displayName, passwordHash: null, roles: JSON.stringify(input.roles), active: true },
+      { id, email: input.email, displayName: input.displayName, passwordHash: null, roles: input.roles, active: true },
       { transaction },
     )
     await MembershipModel.bulkCreate(teamIds.map((teamId) => ({ userId: id, teamId })), { transaction })
@@ -129,7 +129,7 @@ export async function resendInvitation(id: string, actor: User, mail: AccountMai
 }
 
 async function otherActiveAdmins(exceptId: string, transaction: Transaction): Promise<number> {
-  return UserModel.count({ where: { id: { [Op.ne]: exceptId }, active: true, roles: { [Op.like]: '%"admin"%' } }, transaction })
+  return UserModel.count({ where: { [Op.and]: [{ id: { [Op.ne]: exceptId }, active: true }, withRole('admin')] }, transaction })
 }
 
 const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.length && [...a].sort().join() === [...b].sort().join()
@@ -152,7 +152,7 @@ export async function updateAccount(id: string, patch: AccountPatch, actor: User
         })
       }
       if (!sameSet(before, after)) {
-        u.roles = JSON.stringify(after)
+        u.roles = after
         event('account-roles-changed', { roles: { from: before, to: after } })
       }
     }

@@ -1,7 +1,7 @@
-import { Transaction } from 'sequelize'
 import type { PasswordResetRequest, SetPasswordInput, SetPasswordResult } from '#shared/schemas/account'
 import { audit } from '../audit.ts'
 import { hashPassword } from '../auth/passwords.ts'
+import { writeTransaction } from '../db/transaction.ts'
 import { AppError } from '../errors.ts'
 import { passwordReset } from '../mail/account-templates.ts'
 import type { Mailer } from '../mail/mailer.ts'
@@ -43,7 +43,7 @@ export async function setPasswordWithLink(input: SetPasswordInput): Promise<SetP
   if (problem) throw new AppError('invalid-input', 400, 'Some fields need attention', { password: problem })
   // Hashed before the transaction: bcrypt takes a few hundred milliseconds and must not hold the write lock.
   const passwordHash = await hashPassword(input.password)
-  return UserModel.sequelize!.transaction({ type: Transaction.TYPES.IMMEDIATE }, async (transaction) => {
+  return writeTransaction(UserModel.sequelize!, async (transaction) => {
     const { link, user: fresh } = await findUsableLink(input.token, transaction)
     await consumeLink(link, transaction)
     const now = new Date()

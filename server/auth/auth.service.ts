@@ -3,7 +3,7 @@ import type { LoginInput, Session, User } from '#shared/schemas/user'
 import { audit } from '../audit.ts'
 import { AppError } from '../errors.ts'
 import { RefreshSessionModel, UserModel } from '../models/index.ts'
-import { getUser, rolesOf } from '../users/users.service.ts'
+import { getUser } from '../users/users.service.ts'
 import { hashPassword, needsRehash, verifyPassword } from './passwords.ts'
 import { hashToken, newOpaqueToken, signAccessToken } from './tokens.ts'
 
@@ -39,7 +39,7 @@ export async function login(secret: string, input: LoginInput): Promise<IssuedSe
   // Accounts hashed under an older, lower work factor are brought up to today's while the password is at hand.
   if (needsRehash(row.passwordHash!)) await row.update({ passwordHash: await hashPassword(input.password) })
   await audit({ actorId: row.id, action: 'login', entityType: 'user', entityId: row.id })
-  return issue(secret, { ...(await getUser(row.id))!, roles: rolesOf(row) }, randomUUID())
+  return issue(secret, (await getUser(row.id))!, randomUUID())
 }
 
 /** Rotates the refresh token; a token presented twice revokes its whole family (stolen-token reuse). */

@@ -63,7 +63,7 @@ export async function seedDemo(): Promise<{ created: number; exams: number }> {
       email: a.email,
       displayName: a.displayName,
       passwordHash: (passwordHash ??= await hashPassword(DEMO_PASSWORD)),
-      roles: JSON.stringify(a.roles),
+      roles: a.roles,
     })
     await MembershipModel.bulkCreate(a.teams.map((t) => ({ userId: user.id, teamId: teamIds.get(t)! })))
     created += 1

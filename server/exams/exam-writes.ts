@@ -1,6 +1,7 @@
-import { Op, Transaction } from 'sequelize'
+import { Op, type Transaction } from 'sequelize'
 import type { User } from '#shared/schemas/user'
 import { audit } from '../audit.ts'
+import { writeTransaction } from '../db/transaction.ts'
 import { AppError } from '../errors.ts'
 import { ExamModel } from '../models/index.ts'
 import { readable, scopeOf } from './exam-access.ts'
@@ -9,7 +10,7 @@ import { presentOwn } from './exam-record.ts'
 
 // IMMEDIATE takes the write lock up front, so two writes to one exam cannot interleave between check and save.
 export function inTransaction<T>(work: (transaction: Transaction) => Promise<T>): Promise<T> {
-  return ExamModel.sequelize!.transaction({ type: Transaction.TYPES.IMMEDIATE }, work)
+  return writeTransaction(ExamModel.sequelize!, work)
 }
 
 /** Whether the user may read the row at all; who may not gets 404, so existence is not disclosed. */

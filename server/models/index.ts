@@ -10,25 +10,13 @@ import { ExamModel, initExamModel } from './exam.ts'
 import { SignatureModel, initSignatureModel } from './signature.ts'
 import { RoundExaminerModel, RoundModel, RoundPatientCodeModel, initRoundModels } from './round.ts'
 import { AccountLinkModel, initAccountLinkModel } from './account-link.ts'
+import { UserModel, UserRoleModel, initUserModels, withRole } from './user.ts'
 
+export { UserModel, UserRoleModel, withRole }
 export { ExamModel }
 export { SignatureModel }
 export { RoundModel, RoundPatientCodeModel, RoundExaminerModel }
 export { AccountLinkModel }
-
-export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAttributes<UserModel>> {
-  declare id: string
-  declare email: string
-  declare displayName: string
-  declare passwordHash: string | null
-  declare roles: string
-  declare active: CreationOptional<boolean>
-  declare invitedAt: CreationOptional<Date | null>
-  declare deactivatedAt: CreationOptional<Date | null>
-  declare passwordChangedAt: CreationOptional<Date | null>
-  declare createdAt: CreationOptional<Date>
-  declare updatedAt: CreationOptional<Date>
-}
 
 export class TeamModel extends Model<InferAttributes<TeamModel>, InferCreationAttributes<TeamModel>> {
   declare id: string
@@ -74,21 +62,7 @@ export type Models = ReturnType<typeof initModels>
 export function initModels(sequelize: Sequelize) {
   const id = { type: DataTypes.STRING(36), primaryKey: true }
   const stamps = { createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE }
-  UserModel.init(
-    {
-      id,
-      email: DataTypes.STRING,
-      displayName: DataTypes.STRING,
-      passwordHash: DataTypes.STRING,
-      roles: DataTypes.TEXT,
-      active: DataTypes.BOOLEAN,
-      invitedAt: DataTypes.DATE,
-      deactivatedAt: DataTypes.DATE,
-      passwordChangedAt: DataTypes.DATE,
-      ...stamps,
-    },
-    { sequelize, tableName: 'users' },
-  )
+  initUserModels(sequelize)
   TeamModel.init({ id, name: DataTypes.STRING, ...stamps }, { sequelize, tableName: 'teams' })
   MembershipModel.init(
     {
@@ -126,5 +100,5 @@ export function initModels(sequelize: Sequelize) {
   initSignatureModel(sequelize)
   initRoundModels(sequelize)
   initAccountLinkModel(sequelize)
-  return { UserModel, TeamModel, MembershipModel, RefreshSessionModel, AuditEventModel, ExamModel, SignatureModel }
+  return { UserModel, UserRoleModel, TeamModel, MembershipModel, RefreshSessionModel, AuditEventModel, ExamModel, SignatureModel }
 }

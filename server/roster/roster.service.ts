@@ -1,10 +1,11 @@
 import { randomUUID } from 'node:crypto'
-import { col, fn, Op, Transaction, where } from 'sequelize'
+import { col, fn, Op, where, type Transaction } from 'sequelize'
 import { z } from 'zod'
 import type { RosterChanges, RosterCounts, RosterPreview, RosterRow } from '#shared/schemas/roster'
 import { RoleSchema, type Role, type User } from '#shared/schemas/user'
 import { sendInvitation } from '../accounts/invitations.ts'
 import { auditAll, type AuditEntry } from '../audit.ts'
+import { writeTransaction } from '../db/transaction.ts'
 import type { Mailer } from '../mail/mailer.ts'
 import { MembershipModel, TeamModel, UserModel } from '../models/index.ts'
 import { rolesOf } from '../users/users.service.ts'
@@ -192,7 +193,7 @@ export interface RosterInvitations {
 // Audit actions and shapes as the Accounts screen writes them (server/accounts/accounts.service.ts), plus the source.
 const SOURCE = { source: 'roster-import' } as const
 
-/** Creates the new accounts with two statements, whatever their number; returns their audit events. */
+/** Creates the new accounts with three statements, whatever their number; returns their audit events. */
 async function createAccounts(targets: Target[], actor: User, transaction: Transaction): Promise<AuditEntry[]> {
   const made = targets.map((target) => ({ target, id: randomUUID(), teamIds: target.teams.map((t) => t.id).sort() }))
   await UserModel.bulkCreate(
@@ -200,7 +201,7 @@ async function createAccounts(targets: Target[], actor: User, transaction: Trans
       id,
       email: target.email,
       displayName: target.displayName,
-      roles: JSON.stringify(target.roles),
+      roles: target.roles,
       ...newAccountFields(),
     })),
     { transaction },
@@ -224,7 +225,7 @@ async function updateAccount(target: Target, actor: User, transaction: Transacti
     events.push({ actorId: actor.id, action, entityType: 'user', entityId: user.id, changes: { ...change, ...SOURCE } })
   if (changes.roles) {
     event('account-roles-changed', { roles: changes.roles })
-    user.roles = JSON.stringify(target.roles)
+    user.roles = target.roles
   }
   if (changes.displayName) {
     event('account-renamed', { displayName: changes.displayName })
@@ -254,7 +255,7 @@ async function updateAccount(target: Target, actor: User, transaction: Transacti
  * e-mails leave only once the transaction has committed; if anything fails, nothing is written and nothing is sent.
  */
 export async function applyRoster(file: RosterFile, actor: User, invitations: RosterInvitations = {}): Promise<AppliedRoster> {
-  return UserModel.sequelize!.transaction({ type: Transaction.TYPES.IMMEDIATE }, async (transaction) => {
+  return writeTransaction(UserModel.sequelize!, async (transaction) => {
     // Checked again inside the transaction: the preview the admin saw may be stale, and the client's copy is not trusted.
     const { preview, targets } = await classify(file, actor, transaction)
     const created = await createAccounts(targets.filter((t) => t.row.status === 'new'), actor, transaction)

@@ -1,9 +1,10 @@
 import { randomUUID } from 'node:crypto'
-import { Op, Transaction, type WhereOptions } from 'sequelize'
+import { Op, type Transaction, type WhereOptions } from 'sequelize'
 import { CAUTION_TEXT } from '#shared/domain/interpretation'
 import type { RoundCreate, RoundDetail, RoundEntry, RoundPerson, RoundResults, RoundSummary } from '#shared/schemas/round'
 import type { User } from '#shared/schemas/user'
 import { audit } from '../audit.ts'
+import { writeTransaction } from '../db/transaction.ts'
 import { AppError } from '../errors.ts'
 import { ExamModel, RoundExaminerModel, RoundModel, RoundPatientCodeModel, UserModel } from '../models/index.ts'
 import { currentSettings } from '../settings/settings.service.ts'
@@ -29,7 +30,7 @@ const invalid = (fields: Record<string, string>) => new AppError('invalid-input'
 const roundNotFound = () => new AppError('round-not-found', 404, 'No such calibration round')
 
 function inTransaction<T>(work: (transaction: Transaction) => Promise<T>): Promise<T> {
-  return RoundModel.sequelize!.transaction({ type: Transaction.TYPES.IMMEDIATE }, work)
+  return writeTransaction(RoundModel.sequelize!, work)
 }
 
 async function peopleById(ids: readonly string[]): Promise<Map<string, UserModel>> {

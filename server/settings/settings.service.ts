@@ -1,4 +1,4 @@
-import { Op, Transaction, type Sequelize } from 'sequelize'
+import { Op, type Sequelize, type Transaction } from 'sequelize'
 import {
   settingsChanges,
   withDefaults,
@@ -8,6 +8,7 @@ import {
 } from '#shared/schemas/settings'
 import type { User } from '#shared/schemas/user'
 import { audit } from '../audit.ts'
+import { writeTransaction } from '../db/transaction.ts'
 import { AppError } from '../errors.ts'
 import { UserModel } from '../models/index.ts'
 import { SettingsVersionModel, settingsVersions } from './settings.model.ts'
@@ -69,7 +70,7 @@ export async function updateSettings(admin: User, input: AppSettingsUpdate): Pro
   const { baseVersion, ...values } = input
   const model = settingsVersions()
   const sequelize = model.sequelize!
-  const { saved, change } = await sequelize.transaction({ type: Transaction.TYPES.IMMEDIATE }, async (transaction) => {
+  const { saved, change } = await writeTransaction(sequelize, async (transaction) => {
     const latest = await latestRow(transaction)
     const before = present(latest)
     if (latest.version !== baseVersion)

@@ -1,12 +1,11 @@
 import { Op } from 'sequelize'
-import { z } from 'zod'
-import { RoleSchema, type Role, type Team, type TeamRef, type User } from '#shared/schemas/user'
+import type { Role, Team, TeamRef, User } from '#shared/schemas/user'
 import { MembershipModel, TeamModel, UserModel } from '../models/index.ts'
 
-const RolesJson = z.array(RoleSchema)
-
+/** The account's roles, as the finder read them from `user_roles`. */
 export function rolesOf(user: UserModel): Role[] {
-  return RolesJson.parse(JSON.parse(user.roles))
+  if (!user.roles) throw new Error(`The roles of account ${user.id} were not loaded`)
+  return user.roles
 }
 
 async function teamsOf(userIds: string[]): Promise<Map<string, TeamRef[]>> {

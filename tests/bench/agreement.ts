@@ -28,7 +28,7 @@ const halfCm = (cm: number) => Math.round(cm * 2) / 2
 
 async function makeUser(role: Role, teamId: string | null, i: number) {
   const account = { id: randomUUID(), email: `${role}${i}@bench.test`, displayName: `${role} ${i}`, passwordHash: null }
-  const user = await UserModel.create({ ...account, roles: JSON.stringify([role]) })
+  const user = await UserModel.create({ ...account, roles: [role] })
   if (teamId) await MembershipModel.create({ userId: user.id, teamId })
   return user
 }

@@ -52,7 +52,7 @@ export async function makeUser(opts: UserOptions = {}) {
     email: opts.email ?? `${randomUUID().slice(0, 8)}@example.test`,
     displayName: opts.displayName ?? 'Test Person',
     passwordHash: opts.withPassword === false ? null : passwordHash!,
-    roles: JSON.stringify(opts.roles ?? ['resident']),
+    roles: opts.roles ?? ['resident'],
     active: opts.active ?? true,
   })
   await MembershipModel.bulkCreate((opts.teamIds ?? []).map((teamId) => ({ userId: user.id, teamId })))

@@ -1,4 +1,5 @@
 import { DataTypes, type QueryInterface } from 'sequelize'
+import { appendOnlyTriggers } from '../triggers.ts'
 
 const stamps = {
   createdAt: { type: DataTypes.DATE, allowNull: false },
@@ -46,12 +47,7 @@ export async function up(q: QueryInterface): Promise<void> {
   })
   await q.addIndex('audit_events', ['entityType', 'entityId'])
   // 21 CFR 11.10(e): the trail is append-only, enforced by the database itself.
-  await q.sequelize.query(
-    `CREATE TRIGGER audit_events_no_update BEFORE UPDATE ON audit_events BEGIN SELECT RAISE(ABORT, 'audit trail is append-only'); END`,
-  )
-  await q.sequelize.query(
-    `CREATE TRIGGER audit_events_no_delete BEFORE DELETE ON audit_events BEGIN SELECT RAISE(ABORT, 'audit trail is append-only'); END`,
-  )
+  await appendOnlyTriggers(q, 'audit_events', 'audit trail is append-only')
 }
 
 export async function down(q: QueryInterface): Promise<void> {

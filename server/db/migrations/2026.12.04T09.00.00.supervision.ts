@@ -1,4 +1,6 @@
 import { DataTypes, type QueryInterface } from 'sequelize'
+import { dropColumn } from '../columns.ts'
+import { noDeleteTrigger, setOnceTrigger } from '../triggers.ts'
 
 const COLUMNS = ['id', 'examId', 'examVersion', 'signerId', 'signerName', 'meaning', 'signedAt', 'content', 'contentHash']
 
@@ -20,19 +22,18 @@ export async function up(q: QueryInterface): Promise<void> {
   await q.addIndex('signatures', ['examId'])
   await q.addIndex('audit_events', ['at'])
   // 21 CFR 11.10(e), 11.70: a signature is never removed or rewritten; the one change allowed is marking it superseded, once.
-  await q.sequelize.query(
-    `CREATE TRIGGER signatures_no_delete BEFORE DELETE ON signatures BEGIN SELECT RAISE(ABORT, 'signatures are append-only'); END`,
-  )
-  const unchanged = COLUMNS.map((c) => `NEW.${c} IS OLD.${c}`).join(' AND ')
-  await q.sequelize.query(
-    `CREATE TRIGGER signatures_supersede_only BEFORE UPDATE ON signatures
-     WHEN NOT (OLD.supersededAt IS NULL AND NEW.supersededAt IS NOT NULL AND ${unchanged})
-     BEGIN SELECT RAISE(ABORT, 'signatures are append-only: only supersededAt may be set, once'); END`,
-  )
+  await noDeleteTrigger(q, 'signatures', 'signatures are append-only')
+  await setOnceTrigger(q, {
+    name: 'signatures_supersede_only',
+    table: 'signatures',
+    column: 'supersededAt',
+    unchanged: COLUMNS,
+    message: 'signatures are append-only: only supersededAt may be set, once',
+  })
 }
 
 export async function down(q: QueryInterface): Promise<void> {
   await q.removeIndex('audit_events', ['at'])
   await q.dropTable('signatures')
-  await q.removeColumn('exams', 'returnComment')
+  await dropColumn(q, 'exams', 'returnComment')
 }

@@ -1,4 +1,5 @@
 import { DataTypes, type QueryInterface } from 'sequelize'
+import { dropColumn } from '../columns.ts'
 
 const id = { type: DataTypes.STRING(36), allowNull: false }
 
@@ -33,7 +34,7 @@ export async function up(q: QueryInterface): Promise<void> {
 
 export async function down(q: QueryInterface): Promise<void> {
   await q.sequelize.query('DROP INDEX IF EXISTS exams_round_id')
-  await q.removeColumn('exams', 'roundId')
+  await dropColumn(q, 'exams', 'roundId')
   await q.dropTable('round_examiners')
   await q.dropTable('round_patient_codes')
   await q.dropTable('rounds')

@@ -1,4 +1,6 @@
 import { DataTypes, type QueryInterface } from 'sequelize'
+import { dropColumn } from '../columns.ts'
+import { allowedValuesTrigger } from '../triggers.ts'
 
 /**
  * One-time links for invitations and password resets, and the account dates the admin screen shows.
@@ -18,19 +20,21 @@ export async function up(q: QueryInterface): Promise<void> {
     updatedAt: { type: DataTypes.DATE, allowNull: false },
   })
   await q.addIndex('account_links', ['userId', 'purpose'])
-  await q.sequelize.query(
-    `CREATE TRIGGER account_links_purpose BEFORE INSERT ON account_links WHEN NEW.purpose NOT IN ('invitation', 'reset')
-     BEGIN SELECT RAISE(ABORT, 'account link purpose must be invitation or reset'); END`,
-  )
+  await allowedValuesTrigger(q, {
+    name: 'account_links_purpose',
+    table: 'account_links',
+    column: 'purpose',
+    values: ['invitation', 'reset'],
+    message: 'account link purpose must be invitation or reset',
+  })
   await q.addColumn('users', 'invitedAt', { type: DataTypes.DATE, allowNull: true })
   await q.addColumn('users', 'deactivatedAt', { type: DataTypes.DATE, allowNull: true })
   await q.addColumn('users', 'passwordChangedAt', { type: DataTypes.DATE, allowNull: true })
 }
 
 export async function down(q: QueryInterface): Promise<void> {
-  await q.removeColumn('users', 'passwordChangedAt')
-  await q.removeColumn('users', 'deactivatedAt')
-  await q.removeColumn('users', 'invitedAt')
-  await q.sequelize.query('DROP TRIGGER IF EXISTS account_links_purpose')
+  await dropColumn(q, 'users', 'passwordChangedAt')
+  await dropColumn(q, 'users', 'deactivatedAt')
+  await dropColumn(q, 'users', 'invitedAt')
   await q.dropTable('account_links')
 }

@@ -1,4 +1,5 @@
 import { DataTypes, type QueryInterface } from 'sequelize'
+import { appendOnlyTriggers } from '../triggers.ts'
 
 // The defaults of PRODUCT.md §4.6 and §6 as they stood when settings became editable, written out here so this
 // migration seeds the same version 1 whatever later code changes; tests/server/settings checks them against the schema.
@@ -28,8 +29,7 @@ export async function up(q: QueryInterface): Promise<void> {
     changedBy: { type: DataTypes.STRING(36), allowNull: true },
     changedAt: { type: DataTypes.DATE, allowNull: false },
   })
-  await q.sequelize.query(`CREATE TRIGGER settings_no_update BEFORE UPDATE ON settings BEGIN SELECT RAISE(ABORT, 'settings versions are append-only'); END`)
-  await q.sequelize.query(`CREATE TRIGGER settings_no_delete BEFORE DELETE ON settings BEGIN SELECT RAISE(ABORT, 'settings versions are append-only'); END`)
+  await appendOnlyTriggers(q, 'settings', 'settings versions are append-only')
   await q.bulkInsert('settings', [{ version: 1, values: JSON.stringify(VERSION_1), changedBy: null, changedAt: new Date() }])
 }
 

@@ -118,7 +118,7 @@ describe('PATCH /api/admin/accounts/:id', () => {
     expect(res.status).toBe(409)
     expect(res.body.error.code).toBe('last-admin')
     expect(Object.keys(res.body.error.fields)).toEqual(['roles'])
-    expect(JSON.parse((await UserModel.findByPk(admin.user.id))!.roles)).toEqual(['admin'])
+    expect((await UserModel.findByPk(admin.user.id))!.roles).toEqual(['admin'])
     expect(await AuditEventModel.count({ where: { action: 'account-roles-changed' } })).toBe(0)
   })
 

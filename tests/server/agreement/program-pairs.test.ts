@@ -81,7 +81,7 @@ describe('programPairs', () => {
     await examBy(resident, 'SM-0142', 30)
     const before = await programPairs()
 
-    await UserModel.update({ roles: JSON.stringify(['attending']) }, { where: { id: resident.user.id } })
+    await (await UserModel.findByPk(resident.user.id))!.update({ roles: ['attending'] })
     const after = await programPairs()
 
     expect(before.pairs[0]).toMatchObject({ order: 'resident-minus-attending', first: { examinerId: resident.user.id } })

@@ -39,7 +39,7 @@ export async function accountsSnapshot() {
   return users.map((u) => ({
     email: u.email,
     displayName: u.displayName,
-    roles: JSON.parse(u.roles) as string[],
+    roles: u.roles,
     active: u.active,
     hasPassword: u.passwordHash !== null,
     teams: memberships.filter((m) => m.userId === u.id).map((m) => teams.get(m.teamId)).sort(),

@@ -166,7 +166,7 @@ describe('roster import: changes to existing accounts', () => {
 
     expect(preview.body.rows[0]).toMatchObject({ status: 'invalid', reasons: { roles: 'This is your own account: an import cannot take away your admin role.' } })
     expect(applied.body).toMatchObject({ updated: 0, skipped: 1 })
-    expect(JSON.parse((await UserModel.findByPk(admin.user.id))!.roles)).toEqual(['admin'])
+    expect((await UserModel.findByPk(admin.user.id))!.roles).toEqual(['admin'])
   })
 })
 

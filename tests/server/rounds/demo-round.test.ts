@@ -18,7 +18,7 @@ beforeAll(async () => {
 
 async function authOf(email: string) {
   const user = (await UserModel.findOne({ where: { email } }))!
-  return `Bearer ${signAccessToken(TEST_SECRET, { sub: user.id, roles: JSON.parse(user.roles) })}`
+  return `Bearer ${signAccessToken(TEST_SECRET, { sub: user.id, roles: user.roles })}`
 }
 
 describe('the demo’s calibration round', () => {
