@@ -10,11 +10,13 @@ import { ExamModel, initExamModel } from './exam.ts'
 import { SignatureModel, initSignatureModel } from './signature.ts'
 import { RoundExaminerModel, RoundModel, RoundPatientCodeModel, initRoundModels } from './round.ts'
 import { AccountLinkModel, initAccountLinkModel } from './account-link.ts'
+import { AgreementPairModel, initAgreementPairModel } from './agreement-pair.ts'
 
 export { ExamModel }
 export { SignatureModel }
 export { RoundModel, RoundPatientCodeModel, RoundExaminerModel }
 export { AccountLinkModel }
+export { AgreementPairModel }
 
 export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAttributes<UserModel>> {
   declare id: string
@@ -126,5 +128,6 @@ export function initModels(sequelize: Sequelize) {
   initSignatureModel(sequelize)
   initRoundModels(sequelize)
   initAccountLinkModel(sequelize)
+  initAgreementPairModel(sequelize)
   return { UserModel, TeamModel, MembershipModel, RefreshSessionModel, AuditEventModel, ExamModel, SignatureModel }
 }
