@@ -3,7 +3,7 @@ import { DEFAULT_ESTIMATE_SETTINGS } from '#shared/schemas/settings'
 import { blandAltman } from '#shared/stats/index'
 import { pairTime } from './agreement-scope.ts'
 import { onSettingsChange } from '../settings/settings.service.ts'
-import { programPairs } from './program-pairs.ts'
+import { programPairs } from './pair-store.ts'
 
 /** §4.4: the local spread replaces the default once the deployment holds this many pairs from the last year. */
 export const LOCAL_OBSERVER_MIN_PAIRS = 30

@@ -4,6 +4,7 @@ import { ExamInputSchema, type Vein } from '#shared/schemas/exam'
 import { changesBetween, snapshotOf } from '../exams/exam-changes.ts'
 import { columnsOf } from '../exams/exam-record.ts'
 import { invalidateObserverTerm } from '../agreement/observer-term.ts'
+import { derivePairs } from '../agreement/pair-derivation.ts'
 import { AuditEventModel, ExamModel, UserModel } from '../models/index.ts'
 import { estimateWith, type EstimateContext } from '../settings/settings-estimate.ts'
 import { currentSettings } from '../settings/settings.service.ts'
@@ -117,6 +118,7 @@ export async function seedDemoPairs(teamIds: Map<string, string>, now = new Date
   const created = await ExamModel.sequelize!.transaction(async (transaction) => {
     const values = missing.map((p) => columnsFor(p, userIds.get(p.account)!, teamIds.get(p.team)!, context))
     const rows = await ExamModel.bulkCreate(values, { transaction })
+    await derivePairs(rows.map((row) => row.patientCode), { sequelize: ExamModel.sequelize!, transaction })
     await AuditEventModel.bulkCreate(rows.map(createdEvent), { transaction })
     return rows.length
   })

@@ -4,6 +4,7 @@ import { audit } from '../audit.ts'
 import { writeTransaction } from '../db/transaction.ts'
 import { AppError } from '../errors.ts'
 import { ExamModel } from '../models/index.ts'
+import { derivePairs } from '../agreement/pair-derivation.ts'
 import { readable, scopeOf } from './exam-access.ts'
 import { changesBetween, snapshotOf } from './exam-changes.ts'
 import { presentOwn } from './exam-record.ts'
@@ -39,7 +40,10 @@ export async function checkBaseVersion(row: ExamModel, baseVersion: number | und
     throw await conflict(row, 'stale-version', 'This exam changed after your copy was loaded')
 }
 
-/** Saves the row as a new version and appends one audit event with the before/after of what changed (and `more`). */
+/**
+ * Saves the row as a new version, derives its patient's agreement pairs again and appends one audit event with the
+ * before/after of what changed (and `more`).
+ */
 export async function saveChange(
   actor: User,
   row: ExamModel,
@@ -48,8 +52,11 @@ export async function saveChange(
   before = snapshotOf(row),
   more: Record<string, unknown> = {},
 ) {
+  // The code it had and the code it has: a change of patient code moves the exam from one patient's pairs to another's.
+  const patientCodes = [row.previous('patientCode') ?? row.patientCode, row.patientCode]
   row.version += 1
   await row.save({ transaction })
+  await derivePairs(patientCodes, { sequelize: row.sequelize, transaction })
   const changes = { ...changesBetween(before, snapshotOf(row)), ...more }
   await audit({ actorId: actor.id, action, entityType: 'exam', entityId: row.id, changes }, { transaction })
   return row

@@ -6,6 +6,7 @@ import { ExamModel } from '../models/index.ts'
 import { changesBetween, snapshotOf } from './exam-changes.ts'
 import { columnsOf, presentOwn, sameRecord, storedInput } from './exam-record.ts'
 import { invalidateObserverTerm } from '../agreement/observer-term.ts'
+import { derivePairs } from '../agreement/pair-derivation.ts'
 import { estimateContext, estimateWith } from '../settings/settings-estimate.ts'
 import { roundFieldErrors } from '../rounds/round-membership.ts'
 import { authoredRow, checkBaseVersion, conflict, inTransaction, saveChange } from './exam-writes.ts'
@@ -36,6 +37,7 @@ export async function createExam(author: User, input: ExamInput): Promise<{ exam
     checkAuthorFields(author, input, null, await roundFieldErrors(author, input, null, transaction))
     const values = { id: input.id, examinerId: author.id, status: 'draft', version: 1, submittedAt: null }
     const row = await ExamModel.create({ ...values, ...columnsOf(input, estimateWith(input, context)) }, { transaction })
+    await derivePairs([row.patientCode], { sequelize: row.sequelize, transaction })
     const changes = changesBetween(null, snapshotOf(row))
     await audit({ actorId: author.id, action: 'exam-create', entityType: 'exam', entityId: row.id, changes }, { transaction })
     return { exam: await presentOwn(row), created: true }

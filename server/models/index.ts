@@ -11,12 +11,14 @@ import { SignatureModel, initSignatureModel } from './signature.ts'
 import { RoundExaminerModel, RoundModel, RoundPatientCodeModel, initRoundModels } from './round.ts'
 import { AccountLinkModel, initAccountLinkModel } from './account-link.ts'
 import { UserModel, UserRoleModel, initUserModels, withRole } from './user.ts'
+import { AgreementPairModel, initAgreementPairModel } from './agreement-pair.ts'
 
 export { UserModel, UserRoleModel, withRole }
 export { ExamModel }
 export { SignatureModel }
 export { RoundModel, RoundPatientCodeModel, RoundExaminerModel }
 export { AccountLinkModel }
+export { AgreementPairModel }
 
 export class TeamModel extends Model<InferAttributes<TeamModel>, InferCreationAttributes<TeamModel>> {
   declare id: string
@@ -100,5 +102,6 @@ export function initModels(sequelize: Sequelize) {
   initSignatureModel(sequelize)
   initRoundModels(sequelize)
   initAccountLinkModel(sequelize)
-  return { UserModel, UserRoleModel, TeamModel, MembershipModel, RefreshSessionModel, AuditEventModel, ExamModel, SignatureModel }
+  initAgreementPairModel(sequelize)
+  return { UserModel, UserRoleModel, TeamModel, MembershipModel, RefreshSessionModel, AuditEventModel, ExamModel, SignatureModel, AgreementPairModel }
 }

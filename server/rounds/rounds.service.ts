@@ -6,6 +6,7 @@ import type { User } from '#shared/schemas/user'
 import { audit } from '../audit.ts'
 import { writeTransaction } from '../db/transaction.ts'
 import { AppError } from '../errors.ts'
+import { derivePairs } from '../agreement/pair-derivation.ts'
 import { ExamModel, RoundExaminerModel, RoundModel, RoundPatientCodeModel, UserModel } from '../models/index.ts'
 import { currentSettings } from '../settings/settings.service.ts'
 import { rolesOf } from '../users/users.service.ts'
@@ -241,6 +242,7 @@ export async function closeRound(user: User, id: string): Promise<void> {
     await round!.update({ status: 'closed', closedAt }, { transaction })
     // Touch the entries so their sync cursor moves: devices that may now read them pull them on their next sync.
     await ExamModel.sequelize!.query('UPDATE exams SET roundId = roundId WHERE roundId = :id', { replacements: { id }, transaction })
+    await derivePairs(loaded.patientCodes, { sequelize: ExamModel.sequelize!, transaction })
     const changes = { status: { from: 'open', to: 'closed' }, closedAt: { from: null, to: closedAt.toISOString() } }
     await audit({ actorId: user.id, action: 'round-close', entityType: 'round', entityId: id, changes }, { transaction })
   })

@@ -7,6 +7,7 @@ import {
   type SettingsVersion,
 } from '#shared/schemas/settings'
 import type { User } from '#shared/schemas/user'
+import { deriveAllPairs } from '../agreement/pair-derivation.ts'
 import { audit } from '../audit.ts'
 import { writeTransaction } from '../db/transaction.ts'
 import { AppError } from '../errors.ts'
@@ -78,6 +79,7 @@ export async function updateSettings(admin: User, input: AppSettingsUpdate): Pro
     const changes = settingsChanges(before.values, values)
     if (!Object.keys(changes).length) return { saved: before, change: null }
     const row = await model.create({ version: latest.version + 1, values: JSON.stringify(values), changedBy: admin.id, changedAt: new Date() }, { transaction })
+    if (changes.pairWindowMinutes) await deriveAllPairs({ sequelize, transaction }, values.pairWindowMinutes)
     const version = { from: latest.version, to: row.version }
     await audit({ actorId: admin.id, action: 'settings-update', entityType: 'settings', entityId: String(row.version), changes: { ...changes, version } }, { transaction })
     return { saved: present(row), change: { before, after: present(row) } }

@@ -8,6 +8,7 @@ import { changesBetween, snapshotOf } from '../exams/exam-changes.ts'
 import { columnsOf, presentOwn, sameRecord } from '../exams/exam-record.ts'
 import { inTransaction } from '../exams/exam-writes.ts'
 import { ExamModel } from '../models/index.ts'
+import { derivePairs } from '../agreement/pair-derivation.ts'
 import { roundFieldErrors } from '../rounds/round-membership.ts'
 import { applied, conflictWith, duplicate, fieldsOf, invalid, rejected } from './sync-results.ts'
 
@@ -46,6 +47,7 @@ async function insertAll(author: User, inputs: ExamInput[], context: EstimateCon
     submittedAt: null,
   }))
   const rows = await ExamModel.bulkCreate(values, { transaction })
+  await derivePairs(rows.map((row) => row.patientCode), { sequelize: ExamModel.sequelize!, transaction })
   const events = rows.map((row) => ({
     actorId: author.id,
     action: 'exam-create',

@@ -2,6 +2,7 @@ import request from 'supertest'
 import { computeEstimate } from '#shared/domain/estimate'
 import { AgreementPairListSchema, AgreementSummarySchema, AgreementTrendSchema } from '#shared/schemas/agreement'
 import { ExamInputSchema, type ExamInputRaw } from '#shared/schemas/exam'
+import { derivePairs } from '../../../server/agreement/pair-derivation.ts'
 import { columnsOf } from '../../../server/exams/exam-record.ts'
 import { ExamModel } from '../../../server/models/index.ts'
 import { makeExamInput } from '../factories/exam.ts'
@@ -22,14 +23,24 @@ export interface StoredExam {
   findings?: Partial<ExamInputRaw>
 }
 
-/** Stores an exam as the exams service would (same columns and estimate), straight into the table. */
-export async function storeExam(e: StoredExam): Promise<ExamModel> {
+/** The columns the exams service would store for such an exam (same estimate). */
+export function examValues(e: StoredExam) {
   const examinedAt = new Date(e.at).toISOString()
   const raw = makeExamInput({ teamId: e.teamId, patientCode: e.patientCode ?? 'SM-0142', examinedAt, heightCm: e.heightCm ?? 4, ...e.findings })
   const input = ExamInputSchema.parse(raw)
   const status = e.status ?? 'submitted'
   const workflow = { id: input.id, examinerId: e.examinerId, status, version: 2, submittedAt: status === 'draft' ? null : new Date(e.at) }
-  return ExamModel.create({ ...workflow, ...columnsOf(input, computeEstimate(input)) })
+  return { ...workflow, ...columnsOf(input, computeEstimate(input)) }
+}
+
+/** Stores an exam straight into the table and derives its patient's pairs again, as the exams service would. */
+export async function storeExam(e: StoredExam): Promise<ExamModel> {
+  const sequelize = ExamModel.sequelize!
+  return sequelize.transaction(async (transaction) => {
+    const row = await ExamModel.create(examValues(e), { transaction })
+    await derivePairs([row.patientCode], { sequelize, transaction })
+    return row
+  })
 }
 
 export async function summaryAs(app: App, auth: string, query: Record<string, string> = {}) {

@@ -1,0 +1,66 @@
+import { DataTypes, Model, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+
+/**
+ * Two exams of one patient that form an agreement pair, earlier first, with what the agreement views read of each.
+ * Derived data: `server/agreement/pair-derivation.ts` writes the rows of a patient code again in every write that
+ * can change its pairs.
+ */
+export class AgreementPairModel extends Model<InferAttributes<AgreementPairModel>, InferCreationAttributes<AgreementPairModel>> {
+  declare earlierExamId: string
+  declare laterExamId: string
+  declare patientCode: string
+  /** The time of the pair: its earlier exam's. */
+  declare pairedAt: Date
+  declare meanInclinationDeg: number
+  declare inclinationBand: string
+  declare earlierExaminerId: string
+  declare laterExaminerId: string
+  declare earlierTeamId: string
+  declare laterTeamId: string
+  declare earlierExaminedAt: Date
+  declare laterExaminedAt: Date
+  declare earlierHeightCm: number
+  declare laterHeightCm: number
+  declare earlierCvpCmH2O: number
+  declare laterCvpCmH2O: number
+  declare earlierInclinationDeg: number
+  declare laterInclinationDeg: number
+  declare earlierVein: string
+  declare laterVein: string
+  declare earlierColumnTop: string
+  declare laterColumnTop: string
+}
+
+export function initAgreementPairModel(sequelize: Sequelize): void {
+  const id = DataTypes.STRING(36)
+  const time = DataTypes.DATE
+  const measure = DataTypes.DOUBLE
+  const term = DataTypes.STRING(20)
+  AgreementPairModel.init(
+    {
+      earlierExamId: { type: id, primaryKey: true },
+      laterExamId: id,
+      patientCode: DataTypes.STRING(40),
+      pairedAt: time,
+      meanInclinationDeg: measure,
+      inclinationBand: term,
+      earlierExaminerId: id,
+      laterExaminerId: id,
+      earlierTeamId: id,
+      laterTeamId: id,
+      earlierExaminedAt: time,
+      laterExaminedAt: time,
+      earlierHeightCm: measure,
+      laterHeightCm: measure,
+      earlierCvpCmH2O: measure,
+      laterCvpCmH2O: measure,
+      earlierInclinationDeg: measure,
+      laterInclinationDeg: measure,
+      earlierVein: term,
+      laterVein: term,
+      earlierColumnTop: term,
+      laterColumnTop: term,
+    },
+    { sequelize, tableName: 'agreement_pairs', timestamps: false },
+  )
+}

@@ -1,0 +1,61 @@
+import { afterEach, beforeEach, describe, expect, it } from 'vitest'
+import { programPairs } from '../../../server/agreement/pair-store.ts'
+import { createMigrator } from '../../../server/db/migrator.ts'
+import { openDatabase } from '../../../server/db/sequelize.ts'
+import { ExamModel, initModels } from '../../../server/models/index.ts'
+import { makeCaller, makeTeam } from '../helpers.ts'
+import { DAY, MINUTE, examValues } from './factories.ts'
+
+const MIGRATION = '2026.12.08T09.00.00.agreement-pairs-table'
+let sequelize = openDatabase(':memory:')
+
+beforeEach(() => {
+  sequelize = openDatabase(':memory:')
+})
+
+afterEach(async () => {
+  await sequelize.close()
+})
+
+/**
+ * Exams written before the pairs table existed: one resident–attending pair and an exam with no partner. The accounts
+ * are made on the current schema, then the migrations are taken back to just before the pairs table.
+ */
+async function examsOfOldRelease(migrator: ReturnType<typeof createMigrator>) {
+  await migrator.up()
+  const team = await makeTeam()
+  const resident = await makeCaller({ roles: ['resident'], teamIds: [team.id] })
+  const attending = await makeCaller({ roles: ['attending'], teamIds: [team.id] })
+  await migrator.down({ to: MIGRATION })
+  const at = Date.now() - 10 * DAY
+  const exam = (examinerId: string, minutes: number, patientCode: string) =>
+    ExamModel.create(examValues({ examinerId, teamId: team.id, at: at + minutes * MINUTE, patientCode }))
+  const paired = [await exam(resident.user.id, 0, 'SM-0142'), await exam(attending.user.id, 40, 'SM-0142')]
+  await exam(resident.user.id, 0, 'SM-0157')
+  return paired.map((e) => e.id)
+}
+
+const tables = async () => (await sequelize.getQueryInterface().showAllTables()) as string[]
+const examIndexes = async () => ((await sequelize.getQueryInterface().showIndex('exams')) as { name: string }[]).map((i) => i.name)
+
+describe(`migration ${MIGRATION}`, () => {
+  it('on up, pairs the exams already stored; down drops the table and brings back the index it replaced', async () => {
+    initModels(sequelize)
+    const migrator = createMigrator(sequelize)
+    const paired = await examsOfOldRelease(migrator)
+
+    await migrator.up()
+    const { pairs } = await programPairs()
+    const indexesAfterUp = await examIndexes()
+    await migrator.down({ to: MIGRATION })
+    const tablesAfterDown = await tables()
+    const indexesAfterDown = await examIndexes()
+    await migrator.up()
+
+    expect(pairs.map((p) => [p.first.examId, p.second.examId])).toEqual([paired])
+    expect(indexesAfterUp).not.toContain('exams_agreement_pairs')
+    expect(tablesAfterDown).not.toContain('agreement_pairs')
+    expect(indexesAfterDown).toContain('exams_agreement_pairs')
+    expect((await programPairs()).pairs).toHaveLength(1)
+  })
+})
