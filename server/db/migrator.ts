@@ -9,6 +9,7 @@ import * as rounds from './migrations/2026.12.07T09.00.00.rounds.ts'
 import * as accountLinks from './migrations/2026.12.07T10.00.00.account-links.ts'
 import * as settings from './migrations/2026.12.07T11.00.00.settings.ts'
 import * as attachments from './migrations/2026.12.07T12.00.00.attachments.ts'
+import * as venousContext from './migrations/2026.12.09T09.00.00.venous-context.ts'
 
 interface MigrationModule {
   up(q: QueryInterface): Promise<void>
@@ -26,6 +27,7 @@ const migrations: [string, MigrationModule][] = [
   ['2026.12.07T10.00.00.account-links', accountLinks],
   ['2026.12.07T11.00.00.settings', settings],
   ['2026.12.07T12.00.00.attachments', attachments],
+  ['2026.12.09T09.00.00.venous-context', venousContext],
 ]
 
 export function createMigrator(sequelize: Sequelize) {
