@@ -1,39 +1,46 @@
-import type { ObserverTerm } from '#shared/domain/estimate'
-import { DEFAULT_ESTIMATE_SETTINGS } from '#shared/schemas/settings'
-import { blandAltman } from '#shared/stats/index'
+import { defaultObserverTerm } from '#shared/domain/estimate'
+import { localTermFromPairs, localTermFromRounds } from '#shared/domain/observer-term'
+import type { ObserverTerm } from '#shared/schemas/exam'
+import { closedRoundSubjects, onRoundClose } from '../rounds/rounds.service.ts'
+import { currentSettings, onSettingsChange } from '../settings/settings.service.ts'
 import { pairTime } from './agreement-scope.ts'
-import { onSettingsChange } from '../settings/settings.service.ts'
+import type { Pair } from './pairs.ts'
 import { programPairs } from './pair-store.ts'
 
-/** §4.4: the local spread replaces the default once the deployment holds this many pairs from the last year. */
-export const LOCAL_OBSERVER_MIN_PAIRS = 30
+/** Rounds and pairs older than this no longer describe the deployment's examiners (product default). */
 export const OBSERVER_LOOKBACK_DAYS = 365
+/** A routine pair counts only when its two inclinations differ by at most this (degrees): else posture, not reading, differs. */
+export const PAIR_MAX_INCLINATION_DIFF_DEG = 5
 /** A cached term is recomputed after this long even if nothing invalidated it. */
 export const OBSERVER_TERM_MAX_AGE_MS = 10 * 60_000
 
 const DAY_MS = 86_400_000
-const DEFAULT_TERM: ObserverTerm = { sigmaCm: DEFAULT_ESTIMATE_SETTINGS.sigmaObserverCm, source: 'default' }
 
 let cached: { term: ObserverTerm; computedAt: number } | null = null
 let pending: { generation: number; term: Promise<ObserverTerm> } | null = null
 let generation = 0
 
+const samePosture = (p: Pair) => Math.abs(p.first.inclinationDeg - p.second.inclinationDeg) <= PAIR_MAX_INCLINATION_DIFF_DEG
+
+/** The height differences of the routine pairs of the window whose two exams were taken at (nearly) the same inclination. */
+async function pairDifferences(since: number, now: number): Promise<number[]> {
+  const { pairs } = await programPairs()
+  return pairs.filter((p) => pairTime(p) >= since && pairTime(p) <= now && samePosture(p)).map((p) => p.first.heightCm - p.second.heightCm)
+}
+
 async function compute(now: number): Promise<ObserverTerm> {
   const since = now - OBSERVER_LOOKBACK_DAYS * DAY_MS
-  const { pairs } = await programPairs()
-  const recent = pairs.filter((p) => pairTime(p) >= since && pairTime(p) <= now)
-  if (recent.length < LOCAL_OBSERVER_MIN_PAIRS) return DEFAULT_TERM
-  const spread = blandAltman(
-    recent.map((p) => p.first.heightCm),
-    recent.map((p) => p.second.heightCm),
-  )
-  // Each difference carries two observers' errors: SD(d) = √2·σ_observer.
-  return spread.ok ? { sigmaCm: spread.sd / Math.SQRT2, source: 'local' } : DEFAULT_TERM
+  const fromRounds = localTermFromRounds(await closedRoundSubjects(new Date(since)))
+  if (fromRounds) return fromRounds
+  const fromPairs = localTermFromPairs(await pairDifferences(since, now))
+  return fromPairs ?? defaultObserverTerm((await currentSettings()).values.estimate)
 }
 
 /**
- * σ_observer for the estimate (§4.4): SD of the pair differences ÷ √2 from the last 365 days once there are at least
- * 30 pairs (`source: 'local'`), else the settings' default (`source: 'default'`). Cached for
+ * The error term every new estimate uses. A local σ_exam, replacing reading and observer error together, from (a) the
+ * calibration rounds closed in the last 365 days, pooled within-subject SD over their complete subjects, once there
+ * are 30 (`local-rounds`); else (b) the routine pairs of the last 365 days whose inclinations differ by ≤ 5°, SD of
+ * the differences ÷ √2, once there are 30 (`local-pairs`); else the settings' default (`default`). Cached for
  * OBSERVER_TERM_MAX_AGE_MS or until {@link invalidateObserverTerm}; concurrent callers share one computation.
  */
 export async function observerTerm(): Promise<ObserverTerm> {
@@ -51,11 +58,12 @@ export async function observerTerm(): Promise<ObserverTerm> {
   }
 }
 
-/** Drops the cached term, e.g. after an exam is submitted, amended or deleted; the next call recomputes it. */
+/** Drops the cached term, e.g. after an exam is submitted or a round closes; the next call recomputes it. */
 export function invalidateObserverTerm(): void {
   generation += 1
   cached = null
 }
 
-// A new pairing window changes the pairs the term is computed from.
+// A new pairing window changes the pairs, a new default σ_observer the default term; a closed round adds subjects.
 onSettingsChange(invalidateObserverTerm)
+onRoundClose(invalidateObserverTerm)

@@ -1,4 +1,4 @@
-import { blandAltman, cohenKappa, icc, landisKoch, weightedKappa } from '#shared/stats/index'
+import { blandAltman, cohenKappa, iccOneWay, landisKoch, weightedKappa } from '#shared/stats/index'
 import type { AgreementSummary, ExaminerAgreement } from '#shared/schemas/agreement'
 import type { Examiner } from './examiners.ts'
 import type { Pair, Reading } from './pairs.ts'
@@ -22,9 +22,13 @@ function blandAltmanOf(first: number[], second: number[]): AgreementSummary['bla
   return r.ok ? { bias: r.bias, sd: r.sd, loa: r.loa, biasCi: r.biasCi, loaCi: r.loaCi } : unavailable(r.reason)
 }
 
+/**
+ * ICC(1,1), one-way random effects (Shrout & Fleiss 1979, case 1): each patient is read by its own pair of examiners,
+ * so no examiner effect can be separated out. Calibration rounds, fully crossed, keep ICC(2,1).
+ */
 function iccOf(first: number[], second: number[]): AgreementSummary['icc'] {
-  const r = icc(first.map((a, i) => [a, second[i]!]))
-  return r.ok ? r.icc2 : unavailable(r.reason)
+  const r = iccOneWay(first.map((a, i) => [a, second[i]!]))
+  return r.ok ? { value: r.value, ci: r.ci } : unavailable(r.reason)
 }
 
 function kappaElevatedOf(pairs: Pair[]): AgreementSummary['kappaElevated'] {
@@ -65,7 +69,7 @@ export function byExaminer(pairs: Pair[], examiners: Map<string, Examiner>, focu
     .sort((a, b) => ROLE_ORDER[a.role] - ROLE_ORDER[b.role] || a.name.localeCompare(b.name) || a.examinerId.localeCompare(b.examinerId))
 }
 
-/** Bland–Altman, ICC(2,1) and kappas over pairs, in the difference's order; too few pairs → the reason, never NaN. */
+/** Bland–Altman, ICC(1,1) and kappas over pairs, in the difference's order; too few pairs → the reason, never NaN. */
 export function summarize(pairs: Pair[], examiners: Map<string, Examiner>, focus?: string): AgreementSummary {
   const n = pairs.length
   const rows = byExaminer(pairs, examiners, focus)

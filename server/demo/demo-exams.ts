@@ -3,6 +3,7 @@ import { ExamInputSchema, type ExamInputRaw } from '#shared/schemas/exam'
 import { createExam, submitExam } from '../exams/exams.service.ts'
 import { ExamModel, UserModel } from '../models/index.ts'
 import { getUser } from '../users/users.service.ts'
+import { VENOUS_SIGNS_SEEN } from './demo-signs.ts'
 
 type Findings = Omit<ExamInputRaw, 'id' | 'teamId' | 'examinedAt'>
 
@@ -17,8 +18,14 @@ interface DemoExam {
 
 const WARD = 'Ward 7 North — Cardiology'
 const AMU = 'Acute Medical Unit'
-const VENOUS: Findings['venousSigns'] = ['not-palpable', 'double-peaked', 'falls-on-inspiration', 'obliterated-by-light-pressure']
-const AF_TR = { rhythm: 'atrial-fibrillation', waveform: { aWave: 'absent', vWave: 'large', yDescent: 'normal' } } as const
+const ICU = 'Medical ICU'
+const VENOUS = VENOUS_SIGNS_SEEN
+// In atrial fibrillation a single-peaked pulsation is expected, so the absent double peak does not count against the vein.
+const AF_TR = {
+  rhythm: 'atrial-fibrillation',
+  waveform: { aWave: 'absent', vWave: 'large', yDescent: 'normal' },
+  venousSigns: { ...VENOUS, 'double-peaked': 'absent' },
+} as const
 
 function seen(patientCode: string, inclinationDeg: number, heightCm: number | null, more: Partial<Findings> = {}): Findings {
   return {
@@ -60,8 +67,10 @@ const EXAMS: DemoExam[] = [
     seen('SM-0163', 60, 8, {
       columnTop: 'above-neck',
       respiratory: 'rises-on-inspiration',
+      venousSigns: { ...VENOUS, 'falls-on-inspiration': 'absent' },
       waveform: { aWave: 'normal', vWave: 'normal', yDescent: 'steep' },
-      notes: 'Top of the column above the jaw even sitting upright.',
+      context: ['svc-obstruction-suspected'],
+      notes: 'Top of the column above the jaw even sitting upright; facial fullness, SVC obstruction to exclude.',
     }),
   ),
   exam(
@@ -72,14 +81,41 @@ const EXAMS: DemoExam[] = [
     true,
     seen('SM-0171', 45, -2, {
       readingPrecision: 'visual',
-      venousSigns: ['double-peaked', 'falls-on-inspiration', 'changes-with-position'],
+      venousSigns: { 'double-peaked': 'present', 'falls-on-inspiration': 'present', 'changes-with-position': 'present' },
     }),
   ),
-  exam('la-0204-a', 'resident3', AMU, 12, true, seen('SM-0204', 35, 0)),
+  exam('la-0204-a', 'resident3', AMU, 12, true, seen('SM-0204', 35, 0, { context: ['positive-pressure-ventilation'], notes: 'On CPAP 8 cmH2O.' })),
+  exam('la-0212-a', 'resident3', AMU, 10, true, seen('SM-0212', 45, 5, { context: ['tense-ascites'] })),
+  exam(
+    'nf-0220-a',
+    'resident5',
+    ICU,
+    9,
+    true,
+    seen('SM-0220', 30, null, {
+      columnTop: 'not-assessable',
+      notAssessableReason: 'lines-or-dressings',
+      venousSigns: {},
+      context: ['positive-pressure-ventilation'],
+      notes: 'Right internal jugular line and dressing; left neck obscured by the ventilator tubing.',
+    }),
+  ),
   exam('sw-0178-a', 'resident', WARD, 8, false, seen('SM-0178', 30, null, { heightMethod: 'along-neck', alongNeckCm: 6 })),
   exam('sw-0184-a', 'resident', WARD, 5, false, seen('SM-0184', 45, 2, { abdominojugular: { done: true, riseCm: 5, sustained: true } })),
   exam('sw-0142-b', 'resident', WARD, 3, false, seen('SM-0142', 45, 1, { notes: 'After two days of diuresis.' })),
-  exam('sw-0190-a', 'resident', WARD, 1, false, seen('SM-0190', 40, null, { columnTop: 'not-filled', venousSigns: [] })),
+  exam('sw-0190-a', 'resident', WARD, 1, false, seen('SM-0190', 0, null, { columnTop: 'not-filled', venousSigns: {} })),
+  exam(
+    'sw-0196-a',
+    'resident',
+    WARD,
+    6,
+    true,
+    seen('SM-0196', 45, 6, {
+      venousSigns: { ...VENOUS, 'not-palpable': 'absent', 'changes-with-position': 'present' },
+      venousConfirmed: true,
+      notes: 'A pulsation could be felt, but the column fell on inspiration and with sitting up: confirmed venous, carotid felt separately.',
+    }),
+  ),
 ]
 
 /** A fixed UUID (version 8, RFC 9562) per demo exam, so reseeding finds the ones already made. */

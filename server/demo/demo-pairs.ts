@@ -6,8 +6,8 @@ import { columnsOf } from '../exams/exam-record.ts'
 import { invalidateObserverTerm } from '../agreement/observer-term.ts'
 import { derivePairs } from '../agreement/pair-derivation.ts'
 import { AuditEventModel, ExamModel, UserModel } from '../models/index.ts'
-import { estimateWith, type EstimateContext } from '../settings/settings-estimate.ts'
-import { currentSettings } from '../settings/settings.service.ts'
+import { estimateContext, estimateWith, type EstimateContext } from '../settings/settings-estimate.ts'
+import { VENOUS_SIGNS_SEEN } from './demo-signs.ts'
 
 const PAIRS = 150
 const SPAN_DAYS = 120
@@ -86,7 +86,7 @@ function columnsFor(plan: PlannedExam, examinerId: string, teamId: string, conte
     teamId,
     examinedAt: plan.examinedAt.toISOString(),
     columnTop: 'seen',
-    venousSigns: ['not-palpable', 'double-peaked', 'falls-on-inspiration', 'obliterated-by-light-pressure'],
+    venousSigns: VENOUS_SIGNS_SEEN,
     rhythm: 'sinus',
     respiratory: 'falls-on-inspiration',
   })
@@ -113,8 +113,7 @@ export async function seedDemoPairs(teamIds: Map<string, string>, now = new Date
   const stored = await ExamModel.findAll({ attributes: ['id'], where: { id: { [Op.in]: plans.map((p) => p.id) } } })
   const existing = new Set(stored.map((e) => e.id))
   const missing = plans.filter((p) => !existing.has(p.id) && userIds.has(p.account) && teamIds.has(p.team))
-  const { values: settings, version: settingsVersion } = await currentSettings()
-  const context = { settings: settings.estimate, settingsVersion }
+  const context = await estimateContext()
   const created = await ExamModel.sequelize!.transaction(async (transaction) => {
     const values = missing.map((p) => columnsFor(p, userIds.get(p.account)!, teamIds.get(p.team)!, context))
     const rows = await ExamModel.bulkCreate(values, { transaction })

@@ -5,6 +5,7 @@ import { createExam, submitExam } from '../exams/exams.service.ts'
 import { ExamModel, RoundModel, UserModel } from '../models/index.ts'
 import { closeRound, createRound } from '../rounds/rounds.service.ts'
 import { getUser } from '../users/users.service.ts'
+import { VENOUS_SIGNS_SEEN } from './demo-signs.ts'
 
 const ROUND_NAME = 'Ward 7 North calibration — November'
 const WARD = 'Ward 7 North — Cardiology'
@@ -67,7 +68,7 @@ export async function seedDemoRound(teamIds: Map<string, string>, now = new Date
         columnTop: 'seen',
         heightCm,
         readingPrecision: 'ruler',
-        venousSigns: ['not-palpable', 'double-peaked', 'falls-on-inspiration', 'obliterated-by-light-pressure'],
+        venousSigns: VENOUS_SIGNS_SEEN,
         rhythm: 'sinus',
         respiratory: 'falls-on-inspiration',
       })

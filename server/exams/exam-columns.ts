@@ -17,6 +17,10 @@ export function columnsOf(input: ExamInput, estimate: Estimate) {
     readingPrecision: input.readingPrecision,
     offsetModel: input.offsetModel,
     venousSigns: JSON.stringify(input.venousSigns),
+    venousConfirmed: input.venousConfirmed,
+    notAssessableReason: input.notAssessableReason ?? null,
+    notAssessableText: input.notAssessableText ?? null,
+    context: JSON.stringify(input.context),
     rhythm: input.rhythm,
     waveform: JSON.stringify(input.waveform),
     respiratory: input.respiratory,
@@ -26,6 +30,20 @@ export function columnsOf(input: ExamInput, estimate: Estimate) {
     estimate: JSON.stringify(estimate),
     verticalHeightCm: estimate.heightCm,
     cvpCmH2O: estimate.cvpCmH2O,
+  }
+}
+
+/**
+ * Fields added after exams were first stored, only where they hold something: a record saved before them keeps the
+ * signed content (and so the hash) it was countersigned with.
+ */
+function laterFields(row: ExamModel): Record<string, unknown> {
+  const context = JSON.parse(row.context ?? '[]') as unknown[]
+  return {
+    ...(row.venousConfirmed ? { venousConfirmed: true } : {}),
+    ...(row.notAssessableReason ? { notAssessableReason: row.notAssessableReason } : {}),
+    ...(row.notAssessableText ? { notAssessableText: row.notAssessableText } : {}),
+    ...(context.length ? { context } : {}),
   }
 }
 
@@ -53,6 +71,7 @@ export function storedInput(row: ExamModel): Record<string, unknown> {
     waveform: JSON.parse(row.waveform),
     respiratory: row.respiratory,
     abdominojugular: JSON.parse(row.abdominojugular),
+    ...laterFields(row),
   }
 }
 

@@ -27,6 +27,7 @@ export async function present(rows: ExamModel[], codeOf: (row: ExamModel) => str
       ...storedInput(row),
       patientCode: codeOf(row),
       notes: textFor(row.notes ?? '', row, codeOf(row)),
+      ...(row.notAssessableText ? { notAssessableText: textFor(row.notAssessableText, row, codeOf(row)) } : {}),
       examinerId: row.examinerId,
       examinerName: userNames.get(row.examinerId) ?? '',
       teamName: teamNames.get(row.teamId) ?? '',
@@ -48,13 +49,16 @@ export async function presentOwn(row: ExamModel): Promise<Exam> {
   return exam!
 }
 
-function canonical(input: ExamInput): string {
+/** The record's content: the band the examiner reviewed travels with a save but is not part of the record. */
+function canonical({ reviewed: _reviewed, ...input }: ExamInput): string {
   return sortedJson({
     ...input,
     examinedAt: new Date(input.examinedAt).toISOString(),
     heightCm: input.heightCm ?? null,
     alongNeckCm: input.alongNeckCm ?? null,
     roundId: input.roundId ?? null,
+    notAssessableReason: input.notAssessableReason ?? null,
+    notAssessableText: input.notAssessableText ?? null,
   })
 }
 

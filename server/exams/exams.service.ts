@@ -7,9 +7,11 @@ import { changesBetween, snapshotOf } from './exam-changes.ts'
 import { columnsOf, presentOwn, sameRecord, storedInput } from './exam-record.ts'
 import { invalidateObserverTerm } from '../agreement/observer-term.ts'
 import { derivePairs } from '../agreement/pair-derivation.ts'
-import { estimateContext, estimateWith } from '../settings/settings-estimate.ts'
+import { estimateContext } from '../settings/settings-estimate.ts'
 import { roundFieldErrors } from '../rounds/round-membership.ts'
 import { authoredRow, checkBaseVersion, conflict, inTransaction, saveChange } from './exam-writes.ts'
+import { savedEstimate } from './saved-estimate.ts'
+import { checkVenousConfirmed } from './submit-checks.ts'
 
 const FUTURE_TOLERANCE_MS = 5 * 60 * 1000
 const EDITABLE = new Set(['draft', 'returned'])
@@ -36,7 +38,7 @@ export async function createExam(author: User, input: ExamInput): Promise<{ exam
     if (existing) throw new AppError('id-taken', 409, 'Another exam already has this id')
     checkAuthorFields(author, input, null, await roundFieldErrors(author, input, null, transaction))
     const values = { id: input.id, examinerId: author.id, status: 'draft', version: 1, submittedAt: null }
-    const row = await ExamModel.create({ ...values, ...columnsOf(input, estimateWith(input, context)) }, { transaction })
+    const row = await ExamModel.create({ ...values, ...columnsOf(input, savedEstimate(input, context)) }, { transaction })
     await derivePairs([row.patientCode], { sequelize: row.sequelize, transaction })
     const changes = changesBetween(null, snapshotOf(row))
     await audit({ actorId: author.id, action: 'exam-create', entityType: 'exam', entityId: row.id, changes }, { transaction })
@@ -62,7 +64,7 @@ export async function updateExam(author: User, id: string, patch: ExamPatch): Pr
     checkAuthorFields(author, input, row, await roundFieldErrors(author, input, row, transaction))
     const before = snapshotOf(row)
     const storedEstimate = row.estimate
-    row.set(columnsOf(input, estimateWith(input, context)))
+    row.set(columnsOf(input, savedEstimate(input, context)))
     // Nothing changed: keep the estimate as computed, never re-evaluated under settings saved since.
     if (!Object.keys(changesBetween(before, snapshotOf(row))).length) return row.set({ estimate: storedEstimate })
     return saveChange(author, row, 'exam-update', transaction, before)
@@ -74,6 +76,7 @@ export async function submitExam(author: User, id: string, baseVersion?: number)
   return inTransaction(async (transaction) => {
     const row = await authoredRow(author, id, transaction)
     await checkEditable(row, baseVersion)
+    checkVenousConfirmed(row)
     const before = snapshotOf(row)
     row.set({ status: 'submitted', submittedAt: new Date(), returnComment: null })
     return saveChange(author, row, 'exam-submit', transaction, before)

@@ -1,3 +1,4 @@
+import type { Exam } from '#shared/schemas/exam'
 import type { ExamExportQuery } from '#shared/schemas/export'
 import { audit } from '../audit.ts'
 import { scopeOf } from '../exams/exam-access.ts'
@@ -5,6 +6,8 @@ import { codeFor, logWhere, readableRow, type Viewer } from '../exams/exam-queri
 import { present } from '../exams/exam-record.ts'
 import { ExamModel } from '../models/index.ts'
 import { examsCsv } from './exam-csv.ts'
+import { statementsOf } from './exam-statements.ts'
+import { estimateSettingsOf, versionOf } from './estimate-settings.ts'
 import { examBundle, observationStatus, type FhirBundle } from './fhir-bundle.ts'
 
 /** Rows are turned into the API's exam shape this many at a time (names and signatures are joined per batch). */
@@ -15,7 +18,8 @@ export async function examFhir(viewer: Viewer, id: string): Promise<FhirBundle> 
   const { row, scope } = await readableRow(viewer.user, id)
   const [exam] = await present([row], codeFor(scope, viewer))
   const masked = !scope.showsCode(row)
-  const bundle = examBundle(exam!, { masked })
+  const settings = await estimateSettingsOf([exam!])
+  const bundle = examBundle(exam!, { masked, statements: statementsOf(exam!.estimate, settings.get(versionOf(exam!))) })
   await audit({
     actorId: viewer.user.id,
     action: 'exam-export',
@@ -44,7 +48,9 @@ export async function examsCsvExport(viewer: Viewer, query: ExamExportQuery): Pr
   for (let i = 0; i < rows.length; i += BATCH) {
     const batch = rows.slice(i, i + BATCH)
     const exams = await present(batch, codeFor(scope, viewer))
-    presented.push(...exams.map((exam, j) => ({ exam, masked: !scope.showsCode(batch[j]!) })))
+    const settings = await estimateSettingsOf(exams)
+    const statements = (exam: Exam) => statementsOf(exam.estimate, settings.get(versionOf(exam)))
+    presented.push(...exams.map((exam, j) => ({ exam, masked: !scope.showsCode(batch[j]!), statements: statements(exam) })))
   }
   // The trail keeps a searched patient code only as its pseudonym: admins read the trail with codes masked (§2).
   const filter = Object.fromEntries(Object.entries(query).filter(([, v]) => v !== undefined && v !== ''))

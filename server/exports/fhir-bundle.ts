@@ -1,6 +1,5 @@
 import { randomUUID } from 'node:crypto'
-import { CAUTION_TEXT } from '#shared/domain/interpretation'
-import { MEANING_LABEL, signatureText } from '#shared/domain/signature-text'
+import { MEANING_LABEL } from '#shared/domain/signature-text'
 import type { Bound, Exam } from '#shared/schemas/exam'
 import type { Signature } from '#shared/schemas/signature'
 import {
@@ -15,6 +14,8 @@ import {
   type ObservationCode,
   type PerformerRole,
 } from './fhir-codes.ts'
+import type { EstimateStatements } from './exam-statements.ts'
+import { notesOf } from './fhir-notes.ts'
 
 // The slice of FHIR R4 (4.0.1) this export writes; field names as in the specification.
 interface Coding {
@@ -107,13 +108,6 @@ function absent(code: 'unknown' | 'not-applicable', text: string): CodeableConce
 /** §4.5: above the visible neck the estimate is a lower bound, with no venous column at all an upper one. */
 const COMPARATOR: Record<Bound, Quantity['comparator'] | undefined> = { point: undefined, lower: '>=', upper: '<=', none: undefined }
 
-const BOUND_NOTE: Record<Bound, string | null> = {
-  point: null,
-  lower: 'The top of the venous column was above the visible neck: the estimate is a lower bound (CVP at least this value).',
-  upper: 'No venous column was seen even lying flat: the estimate is an upper bound (CVP at most the offset at this inclination).',
-  none: 'The top of the venous column could not be assessed: there is no estimate.',
-}
-
 function quantityComponent(
   code: ObservationCode,
   value: number | null,
@@ -151,21 +145,11 @@ function components(exam: Exam): Component[] {
   ]
 }
 
-function notes(exam: Exam): { text: string }[] {
-  const e = exam.estimate
-  const lines = [
-    CAUTION_TEXT,
-    BOUND_NOTE[e.bound],
-    e.outsideStudiedRange ? 'The inclination lies above 60°, beyond the angles the offset was studied at (Seth et al. 2002).' : null,
-    // 21 CFR 11.50: printed name, date and time with zone, and meaning; superseded ones stay on record.
-    ...(exam.signatures ?? []).map(signatureText),
-  ]
-  return lines.filter((text): text is string => text !== null).map((text) => ({ text }))
-}
-
 export interface BundleOptions {
   /** The reader sees the keyed pseudonym, not the patient code (educators, §2). */
   masked: boolean
+  /** The estimate in words, for the notes: statements, cautions and the reviewed band. */
+  statements: EstimateStatements
   /** When the Bundle is assembled. */
   now?: Date
   /** Makes ids for the resources that have none of their own (roles, provenance, the Bundle). */
@@ -229,7 +213,7 @@ export function examBundle(exam: Exam, options: BundleOptions): FhirBundle {
     ...(e.cvpCmH2O === null
       ? { dataAbsentReason: absent('unknown', 'The top of the venous column could not be assessed') }
       : { valueQuantity: quantity(e.cvpCmH2O, 'cmH2O', COMPARATOR[e.bound]) }),
-    note: notes(exam),
+    note: notesOf(exam, options.statements),
     method: { coding: [PHYSICAL_EXAMINATION], text: 'Bedside jugular venous pressure exam' },
     component: components(exam),
   }

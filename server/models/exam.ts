@@ -16,7 +16,13 @@ export class ExamModel extends Model<InferAttributes<ExamModel>, InferCreationAt
   declare alongNeckCm: number | null
   declare readingPrecision: string
   declare offsetModel: string
+  /** JSON: an object keyed by sign, or the older list of present signs; read through the shared schema. */
   declare venousSigns: string
+  declare venousConfirmed: CreationOptional<boolean>
+  declare notAssessableReason: CreationOptional<string | null>
+  declare notAssessableText: CreationOptional<string | null>
+  /** JSON list of context flags. */
+  declare context: CreationOptional<string>
   declare rhythm: string
   declare waveform: string
   declare respiratory: string
@@ -57,6 +63,10 @@ export function initExamModel(sequelize: Sequelize): void {
       readingPrecision: text,
       offsetModel: text,
       venousSigns: DataTypes.TEXT,
+      venousConfirmed: DataTypes.BOOLEAN,
+      notAssessableReason: text,
+      notAssessableText: DataTypes.TEXT,
+      context: DataTypes.TEXT,
       rhythm: text,
       waveform: DataTypes.TEXT,
       respiratory: text,

@@ -231,6 +231,33 @@ export async function getRound(viewer: RoundViewer, id: string): Promise<RoundDe
   }
 }
 
+const closeListeners: (() => void)[] = []
+
+/** Calls `listener` after each round closes, e.g. to drop what was computed from the closed rounds. */
+export function onRoundClose(listener: () => void): void {
+  closeListeners.push(listener)
+}
+
+/**
+ * The heights of every complete subject (a patient code every examiner measured) of the rounds closed since `since`,
+ * one row per subject in the round's examiner order; rows of different rounds may differ in length.
+ */
+export async function closedRoundSubjects(since: Date): Promise<number[][]> {
+  const rounds = await RoundModel.findAll({ where: { status: 'closed', closedAt: { [Op.gte]: since } } })
+  const subjects: number[][] = []
+  for (const loaded of await loadRounds(rounds)) {
+    const { recorded } = await cellsOf(loaded)
+    for (const code of loaded.patientCodes) {
+      const row = loaded.examiners.map((e) => {
+        const exam = recorded.get(cellKey(e.id, code))
+        return exam ? measuredHeight(exam) : null
+      })
+      if (row.length >= 2 && row.every((h) => h !== null)) subjects.push(row)
+    }
+  }
+  return subjects
+}
+
 /** Closes the round; only its own educator may. Audited as `round-close`. Its entries then become readable as usual. */
 export async function closeRound(user: User, id: string): Promise<void> {
   const loaded = await visibleRound(user, id)
@@ -246,6 +273,7 @@ export async function closeRound(user: User, id: string): Promise<void> {
     const changes = { status: { from: 'open', to: 'closed' }, closedAt: { from: null, to: closedAt.toISOString() } }
     await audit({ actorId: user.id, action: 'round-close', entityType: 'round', entityId: id, changes }, { transaction })
   })
+  for (const listener of closeListeners) listener()
 }
 
 /** The closed round's agreement for its educator and examiners (codes as `presenterFor` shows them); while it is open, 409. */

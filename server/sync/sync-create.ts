@@ -1,5 +1,5 @@
 import type { Transaction } from 'sequelize'
-import { estimateContext, estimateWith, type EstimateContext } from '../settings/settings-estimate.ts'
+import { estimateContext, type EstimateContext } from '../settings/settings-estimate.ts'
 import { ExamInputSchema, type ExamInput } from '#shared/schemas/exam'
 import type { SyncChange, SyncResult } from '#shared/schemas/sync'
 import type { User } from '#shared/schemas/user'
@@ -7,6 +7,7 @@ import { auditAll } from '../audit.ts'
 import { changesBetween, snapshotOf } from '../exams/exam-changes.ts'
 import { columnsOf, presentOwn, sameRecord } from '../exams/exam-record.ts'
 import { inTransaction } from '../exams/exam-writes.ts'
+import { savedEstimate } from '../exams/saved-estimate.ts'
 import { ExamModel } from '../models/index.ts'
 import { derivePairs } from '../agreement/pair-derivation.ts'
 import { roundFieldErrors } from '../rounds/round-membership.ts'
@@ -39,7 +40,7 @@ async function decide(author: User, change: SyncChange, row: ExamModel | undefin
 async function insertAll(author: User, inputs: ExamInput[], context: EstimateContext, transaction: Transaction): Promise<ExamModel[]> {
   if (!inputs.length) return []
   const values = inputs.map((input) => ({
-    ...columnsOf(input, estimateWith(input, context)),
+    ...columnsOf(input, savedEstimate(input, context)),
     id: input.id,
     examinerId: author.id,
     status: 'draft',

@@ -1,50 +1,43 @@
-import type { CvpCategory, ExamFindings, Hint } from '../schemas/exam.ts'
+import { CvpCategorySchema, type Bound, type CvpCategory } from '../schemas/exam.ts'
 import type { EstimateSettings } from '../schemas/settings.ts'
+import { withoutFloatNoise } from './units.ts'
 
-/** Shown on every result and export (§4.7). */
+/** Shown on every result, list and export. */
 export const CAUTION_TEXT =
   'Estimate from physical examination, with a wide error band. It does not replace invasive measurement, ' +
-  'clinical judgement, local protocols or licensed practice.'
+  'clinical judgement, local protocols or licensed practice. Upright patients with heart failure may read lower ' +
+  'than a supine catheter value (McGee 1998).'
 
-/** Low below 5, normal 5–10 inclusive, high above 10 cmH₂O by default (categories of Cook 1990). */
+const ORDER = CvpCategorySchema.options
+
+/** Low below 5, normal 5–10 inclusive, high above 10 cmH₂O by default (categories of Cook 1990, Am J Med Sci, PMID 2316561). */
 export function categoryOf(cvpCmH2O: number, settings: EstimateSettings): CvpCategory {
-  if (cvpCmH2O < settings.lowBelowCmH2O) return 'low'
-  if (cvpCmH2O > settings.highAboveCmH2O) return 'high'
+  const value = withoutFloatNoise(cvpCmH2O)
+  if (value < settings.lowBelowCmH2O) return 'low'
+  if (value > settings.highAboveCmH2O) return 'high'
   return 'normal'
 }
 
-/** Whether a band whose open ends are null lies wholly inside one category. */
-export function bandIsClear(band: [number | null, number | null], settings: EstimateSettings): boolean {
-  const [low, high] = band
-  if (low === null && high === null) return false
-  if (low === null) return high! < settings.lowBelowCmH2O
-  if (high === null) return low > settings.highAboveCmH2O
-  return categoryOf(low, settings) === categoryOf(high, settings)
+/**
+ * The categories a 95% band reaches, low to high. An open end (null) reaches every category beyond the other end: a
+ * lower bound reaches its limit's category and those above, an upper bound its limit's category and those below.
+ */
+export function categoriesInBand(band: readonly [number | null, number | null] | null, settings: EstimateSettings): CvpCategory[] {
+  if (!band || (band[0] === null && band[1] === null)) return []
+  const from = band[0] === null ? 0 : ORDER.indexOf(categoryOf(band[0], settings))
+  const to = band[1] === null ? ORDER.length - 1 : ORDER.indexOf(categoryOf(band[1], settings))
+  return ORDER.slice(from, to + 1)
 }
 
-type HintRule = [applies: (f: ExamFindings) => boolean, hint: Hint]
-
-// Patterns to consider, never diagnoses: Harrison's Manual of Medicine; Applefeld, Clinical Methods ch. 19.
-const HINT_RULES: HintRule[] = [
-  [(f) => f.waveform.aWave === 'cannon', { code: 'cannon-a-waves', finding: 'Cannon a waves', consider: 'atrioventricular dissociation' }],
-  [(f) => f.waveform.aWave === 'absent', { code: 'absent-a-waves', finding: 'No a waves', consider: 'atrial fibrillation' }],
-  [(f) => f.waveform.vWave === 'large', { code: 'large-v-waves', finding: 'Large v waves', consider: 'tricuspid regurgitation' }],
-  [(f) => f.waveform.yDescent === 'steep', { code: 'steep-y-descent', finding: 'Steep y descent', consider: 'constrictive pericarditis' }],
-  [
-    (f) => f.respiratory === 'rises-on-inspiration',
-    { code: 'kussmaul-sign', finding: 'Rises on inspiration (Kussmaul sign)', consider: 'constriction, restrictive cardiomyopathy or right-ventricular infarction' },
-  ],
-  [
-    (f) => f.abdominojugular.done && f.abdominojugular.sustained === true && (f.abdominojugular.riseCm ?? 0) >= 4,
-    { code: 'abdominojugular-positive', finding: 'Sustained rise of 4 cm or more with abdominal pressure', consider: 'raised right-sided filling pressure' },
-  ],
-  [
-    (f) => f.vein === 'left-internal' || f.vein === 'left-external',
-    { code: 'left-sided-vein', finding: 'Read on a left-sided vein', consider: 'a falsely high reading; confirm on the right internal jugular' },
-  ],
-]
-
-/** The patterns the findings suggest, in a fixed order. */
-export function hintsFor(findings: ExamFindings): Hint[] {
-  return HINT_RULES.filter(([applies]) => applies(findings)).map(([, hint]) => ({ ...hint }))
+/**
+ * JVP elevated when the top of the column is more than 3 cm (setting) above the sternal angle: McGee 1998, Am Heart J
+ * 136:10–18. A lower bound above the threshold is elevated; one at or below it cannot say (null); an upper bound ("no
+ * column even lying flat") is not elevated; no estimate, null.
+ */
+export function elevatedOf(bound: Bound, heightCm: number | null, settings: EstimateSettings): boolean | null {
+  if (bound === 'upper') return false
+  if (bound === 'none' || heightCm === null) return null
+  const above = withoutFloatNoise(heightCm) > settings.elevatedAboveCm
+  if (bound === 'lower') return above ? true : null
+  return above
 }

@@ -18,7 +18,7 @@ export function mmHgToCmH2O(mmHg: number): number {
 
 /**
  * Drops binary floating-point noise below 1e-9 (e.g. 9.7 + −4.7 = 4.999999999999999), so values entered as decimals
- * meet the decimal thresholds of §4.6 exactly. Far below any bedside reading.
+ * meet the decimal thresholds of the interpretation exactly. Far below any bedside reading.
  */
 export function withoutFloatNoise(value: number): number {
   return Math.round(value * 1e9) / 1e9

@@ -2,10 +2,10 @@ import { z } from 'zod'
 import { RoleSchema, TeamRefSchema } from './user.ts'
 
 /**
- * Password length rules, from OWASP ASVS 4.0.3 (the L2 standard RELIABILITY.md §4 follows):
+ * Password length rules, from OWASP ASVS 4.0.3 (level 2):
  * 2.1.1 "at least 12 characters", 2.1.2 "64 characters or more are permitted" and "more than 128 are denied";
  * 2.1.4 any printable Unicode character and spaces are allowed; 2.1.9 no composition rules (no "one digit, one capital").
- * NIST SP 800-63B §5.1.1.2 says the same in spirit: a minimum length, a maximum of at least 64, no composition rules,
+ * NIST SP 800-63B, section 5.1.1.2, says the same in spirit: a minimum length, a maximum of at least 64, no composition rules,
  * and a check against values known to be commonly used or compromised (that list lives on the server).
  * Length counts Unicode code points, so an accented letter or an emoji counts as one character.
  */

@@ -21,7 +21,7 @@ export function inclinationBandOf(meanDeg: number): InclinationBand {
 }
 
 /**
- * The vein filter: one of the exam's veins (§3), or `internal` / `external` for either side. A pair matches only when
+ * The vein filter: one of the exam's veins, or `internal` / `external` for either side. A pair matches only when
  * both of its exams were read on a matching vein, so mixed-vein pairs appear under no vein filter.
  */
 export const VeinFilterSchema = z.enum([...VeinSchema.options, 'internal', 'external'])
@@ -32,7 +32,7 @@ export function veinMatches(filter: VeinFilter, vein: string): boolean {
   return filter === 'internal' || filter === 'external' ? vein.endsWith(`-${filter}`) : vein === filter
 }
 
-/** Filters of the agreement views (§6): the time of a pair is the time of its earlier exam. */
+/** Filters of the agreement views: the time of a pair is the time of its earlier exam. */
 export const AgreementQuerySchema = z.object({
   from: isoTime.optional(),
   to: isoTime.optional(),
@@ -46,7 +46,7 @@ export type AgreementQuery = z.infer<typeof AgreementQuerySchema>
 export const AgreementPairsQuerySchema = AgreementQuerySchema.extend({
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(1000).default(50),
-  /** Set by a download: the first page writes the export to the audit trail (§5). */
+  /** Set by a download: the first page writes the export to the audit trail. */
   export: z.literal('csv').optional(),
 })
 export type AgreementPairsQuery = z.infer<typeof AgreementPairsQuerySchema>
@@ -87,7 +87,7 @@ export const ExaminerAgreementSchema = z.object({
 })
 export type ExaminerAgreement = z.infer<typeof ExaminerAgreementSchema>
 
-/** Agreement on h above the sternal angle and on the derived categories (§6). */
+/** Agreement on h above the sternal angle and on the derived categories. */
 export const AgreementSummarySchema = z.object({
   n: z.number().int(),
   blandAltman: orUnavailable(BlandAltmanSummarySchema),

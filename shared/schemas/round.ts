@@ -60,7 +60,7 @@ export const RoundSummarySchema = z.object({
   expected: z.number().int(),
   /**
    * Whether the patient codes in this response (and in every other response about the round) are keyed pseudonyms
-   * (`P-xxxxxxxx`): true for anyone who is not one of the round's examiners, e.g. its educator, as for exams (§2).
+   * (`P-xxxxxxxx`): true for anyone who is not one of the round's examiners, e.g. its educator, as for exams.
    */
   codesMasked: z.boolean(),
 })
@@ -117,7 +117,7 @@ export const RoundExaminerBiasSchema = z.object({
 })
 export type RoundExaminerBias = z.infer<typeof RoundExaminerBiasSchema>
 
-/** A closed round's agreement on h above the sternal angle (§6). */
+/** A closed round's agreement on h above the sternal angle. */
 export const RoundResultsSchema = z.object({
   roundId: z.string(),
   name: z.string(),

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { OffsetModelSchema } from './exam.ts'
+import { ObserverTermSchema, OffsetModelSchema } from './exam.ts'
 
 /** A number in a unit between bounds, with messages naming the setting; `above` excludes the lower bound. */
 function measure(label: string, unit: string, min: number, max: number, above = false) {
@@ -8,7 +8,7 @@ function measure(label: string, unit: string, min: number, max: number, above = 
   return floor.max(max, `${label} is at most ${max} ${unit}`)
 }
 
-/** The estimate's thresholds and error terms (§4.4, §4.6), each required: an admin's save states every value. */
+/** The estimate's thresholds and error terms, each required: an admin's save states every value. */
 const estimateFields = {
   elevatedAboveCm: measure('The elevated-JVP threshold', 'cm', 0, 10),
   lowBelowCmH2O: measure('The low-CVP threshold', 'cmH₂O', 0, 20),
@@ -23,7 +23,7 @@ const estimateFields = {
 
 const f = estimateFields
 
-/** Thresholds and error terms of the estimate (§4); a missing value takes its default, whose source is beside it. */
+/** Thresholds and error terms of the estimate; a missing value takes its default, whose source is beside it. */
 export const EstimateSettingsSchema = z.object({
   elevatedAboveCm: f.elevatedAboveCm.default(3), // McGee 1998, Am Heart J 136:10–18
   lowBelowCmH2O: f.lowBelowCmH2O.default(5), // categories used by Cook 1990
@@ -39,7 +39,7 @@ export type EstimateSettings = z.infer<typeof EstimateSettingsSchema>
 
 export const DEFAULT_ESTIMATE_SETTINGS: EstimateSettings = EstimateSettingsSchema.parse({})
 
-/** Bounds of the pairing window (§6): a quarter of an hour to a day. */
+/** Bounds of the pairing window for paired exams: a quarter of an hour to a day. */
 export const PAIR_WINDOW_MINUTES = { min: 15, max: 1440, default: 120 } as const
 
 const appFields = {
@@ -68,13 +68,13 @@ function crossChecks(value: AppValues, ctx: z.RefinementCtx) {
     ctx.addIssue({ code: 'custom', path: ['estimate', 'sigmaOffsetOutsideRangeCm'], message: `The offset error above 60° cannot be below the offset error within the studied range (${e.sigmaOffsetCm} cm)` })
 }
 
-/** The settings an admin manages (§2): the estimate's thresholds, the pairing window, the default offset model, photos. */
+/** The settings an admin manages: the estimate's thresholds, the pairing window, the default offset model, photos. */
 export const AppSettingsSchema = z.object(appFields).superRefine(crossChecks)
 export type AppSettings = z.infer<typeof AppSettingsSchema>
 
 /**
  * Photos default to off: a photo of the neck can identify a patient, so a deployment turns them on only once its
- * consent and storage rules are settled (data minimisation, §2: "patient data is minimised").
+ * consent and storage rules are settled (data minimisation: patient data is kept to the minimum).
  */
 export const DEFAULT_APP_SETTINGS: AppSettings = {
   estimate: DEFAULT_ESTIMATE_SETTINGS,
@@ -103,6 +103,13 @@ export const SettingsVersionSchema = z.object({
   changedAt: z.string(),
 })
 export type SettingsVersion = z.infer<typeof SettingsVersionSchema>
+
+/**
+ * The settings in force with the error term the server will use (`GET /api/settings`): the device computes the band
+ * the examiner reviews with the same term, so the band shown at the bedside is the band that is saved.
+ */
+export const SettingsInForceSchema = SettingsVersionSchema.extend({ observerTerm: ObserverTermSchema })
+export type SettingsInForce = z.infer<typeof SettingsInForceSchema>
 
 export const SettingChangeSchema = z.object({ from: z.unknown(), to: z.unknown() })
 

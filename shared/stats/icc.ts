@@ -1,4 +1,5 @@
 import { meanSquares, type MeanSquares } from './icc-anova.ts'
+import { average, fLimits, single, spearmanBrown } from './icc-limits.ts'
 import { fQuantile } from './quantiles.ts'
 import { degenerate, type Interval, type StatResult } from './result.ts'
 import { assertRectangular } from './validate.ts'
@@ -28,16 +29,6 @@ export type IccForms = {
 export type Icc = StatResult<{ n: number; k: number } & IccForms>
 
 const P = 0.975
-
-/** (F − 1)/(F + k − 1), taking its limit 1 when F is infinite (no residual variance). */
-const single = (f: number, k: number) => (f === Infinity ? 1 : (f - 1) / (f + k - 1))
-const average = (f: number) => 1 - 1 / f
-const spearmanBrown = (r: number, k: number) => (k * r) / (1 + (k - 1) * r)
-
-/** F-based CI for ICC(1,·) or ICC(3,·) from F = MSR/MS_err with (df1, df2) df (Shrout & Fleiss 1979). */
-function fLimits(f: number, df1: number, df2: number): [low: number, high: number] {
-  return [f / fQuantile(P, df1, df2), f * fQuantile(P, df2, df1)]
-}
 
 /** ICC(2,1)'s CI with Satterthwaite's df (Shrout & Fleiss 1979; McGraw & Wong 1996), as R's psych::ICC computes it. */
 function agreementCi({ n, k, rows, columns, error }: MeanSquares, r: number): Interval {

@@ -9,3 +9,8 @@ export function tQuantile(p: number, df: number): number {
 export function fQuantile(p: number, df1: number, df2: number): number {
   return jStat.centralF.inv(p, df1, df2)
 }
+
+/** The p-quantile of the χ² distribution with `df` degrees of freedom. */
+export function chiSquareQuantile(p: number, df: number): number {
+  return jStat.chisquare.inv(p, df)
+}

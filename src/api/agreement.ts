@@ -10,7 +10,7 @@ import { api } from './client'
 const searchParamsOf = (query: Partial<AgreementPairsQuery>) =>
   Object.fromEntries(Object.entries(query).filter(([, v]) => v !== undefined && v !== '')) as Record<string, string | number>
 
-/** Bland–Altman, ICC(2,1), kappas and each examiner's bias over the pairs the filters select (§6). */
+/** Bland–Altman, ICC(2,1), kappas and each examiner's bias over the pairs the filters select. */
 export function fetchAgreementSummary(query: AgreementQuery = {}) {
   return api.get('agreement/summary', { searchParams: searchParamsOf(query) }).json().then((body) => AgreementSummarySchema.parse(body))
 }

@@ -4,14 +4,18 @@ import { defaultOffsetModelInUse } from '@/stores/settings'
 import {
   AWaveSchema,
   ColumnTopSchema,
+  ContextFlagSchema,
   HeightMethodSchema,
   InclinationSourceSchema,
+  NO_VENOUS_SIGNS,
+  NotAssessableReasonSchema,
   OffsetModelSchema,
   ReadingPrecisionSchema,
   RespiratorySchema,
   RhythmSchema,
   VeinSchema,
   VenousSignSchema,
+  VenousSignStateSchema,
   VWaveSchema,
   YDescentSchema,
 } from '#shared/schemas/exam'
@@ -21,9 +25,17 @@ function maybe<T extends z.ZodType>(schema: T) {
   return schema.optional().catch(undefined)
 }
 
-const venousSigns = z
-  .array(z.unknown())
-  .transform((signs) => signs.filter((sign) => VenousSignSchema.safeParse(sign).success) as z.infer<typeof VenousSignSchema>[])
+type SignStates = Partial<Record<z.infer<typeof VenousSignSchema>, z.infer<typeof VenousSignStateSchema>>>
+
+/** Each sign with its state; drafts of the previous app version hold the list of signs found present. */
+function readSigns(value: unknown): SignStates {
+  const entries = Array.isArray(value) ? value.map((sign) => [sign, 'present']) : Object.entries(value as object)
+  const known = entries.filter(([sign, state]) => VenousSignSchema.safeParse(sign).success && VenousSignStateSchema.safeParse(state).success)
+  return Object.fromEntries(known) as SignStates
+}
+
+const venousSigns = z.union([z.array(z.unknown()), z.record(z.string(), z.unknown())]).transform(readSigns)
+const contextFlags = z.array(z.unknown()).transform((flags) => flags.filter((flag) => ContextFlagSchema.safeParse(flag).success) as z.infer<typeof ContextFlagSchema>[])
 
 /** Every exam field as typed so far: all optional, numbers may be cleared to null. */
 export const DraftFieldsSchema = z.object({
@@ -36,6 +48,7 @@ export const DraftFieldsSchema = z.object({
   inclinationSource: maybe(InclinationSourceSchema),
   vein: maybe(VeinSchema),
   venousSigns: maybe(venousSigns),
+  venousConfirmed: maybe(z.boolean()),
   rhythm: maybe(RhythmSchema),
   columnTop: maybe(ColumnTopSchema),
   heightMethod: maybe(HeightMethodSchema),
@@ -45,8 +58,17 @@ export const DraftFieldsSchema = z.object({
   offsetModel: maybe(OffsetModelSchema),
   waveform: maybe(z.object({ aWave: maybe(AWaveSchema), vWave: maybe(VWaveSchema), yDescent: maybe(YDescentSchema) })),
   respiratory: maybe(RespiratorySchema),
-  abdominojugular: maybe(z.object({ done: maybe(z.boolean()), riseCm: maybe(z.number().nullable()), sustained: maybe(z.boolean()) })),
+  abdominojugular: maybe(
+    z.object({ done: maybe(z.boolean()), riseCm: maybe(z.number().nullable()), sustained: maybe(z.boolean()), fallOnReleaseCm: maybe(z.number().nullable()) }),
+  ),
+  notAssessableReason: maybe(NotAssessableReasonSchema.nullable()),
+  notAssessableText: maybe(z.string().nullable()),
+  context: maybe(contextFlags),
   notes: maybe(z.string()),
+  // The flow's own answers, never sent: the trunk angle checked after a phone reading, and the inclination at which
+  // the examiner, asked to sit the patient up, confirmed the top still above the visible neck.
+  inclinationConfirmed: maybe(z.boolean()),
+  aboveNeckConfirmedDeg: maybe(z.number().nullable()),
 })
 export type DraftFields = z.infer<typeof DraftFieldsSchema>
 
@@ -76,7 +98,8 @@ export function newDraft(teams: readonly TeamRef[], now = new Date()): DraftRow 
       inclinationDeg: null,
       inclinationSource: 'entered',
       vein: 'right-internal',
-      venousSigns: [],
+      venousSigns: { ...NO_VENOUS_SIGNS },
+      venousConfirmed: false,
       rhythm: 'unknown',
       heightMethod: 'vertical',
       readingPrecision: 'ruler',
@@ -84,6 +107,7 @@ export function newDraft(teams: readonly TeamRef[], now = new Date()): DraftRow 
       waveform: { aWave: 'unclear', vWave: 'unclear', yDescent: 'unclear' },
       respiratory: 'not-assessed',
       abdominojugular: { done: false },
+      context: [],
       notes: '',
     },
     step: 0,

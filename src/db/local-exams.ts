@@ -1,7 +1,7 @@
 import { computeEstimate } from '#shared/domain/estimate'
 import type { Exam, ExamInput } from '#shared/schemas/exam'
 import type { User } from '#shared/schemas/user'
-import { estimateSettingsInUse, settingsVersionInUse } from '@/stores/settings'
+import { estimateSettingsInUse, observerTermInUse, settingsVersionInUse } from '@/stores/settings'
 import { db } from './index'
 import { cursorKey } from './meta'
 import { queuedFor } from './outbox-queries'
@@ -12,17 +12,22 @@ export function plain<T>(value: T): T {
   return JSON.parse(JSON.stringify(value)) as T
 }
 
-/** The exam as this device shows it until the server's copy arrives: the saved record, estimated offline. */
+/**
+ * The exam as this device shows it until the server's copy arrives: the saved record, estimated offline with the
+ * settings and error term in use (those the band was reviewed with).
+ */
 export function localExamOf(input: ExamInput, author: User, previous?: LocalExam): LocalExam {
   const now = new Date().toISOString()
+  const { reviewed: _reviewed, ...record } = input
+  const estimate = computeEstimate(input, { settings: estimateSettingsInUse(), observer: observerTermInUse() })
   return {
-    ...input,
+    ...record,
     examinerId: author.id,
     examinerName: author.displayName,
     teamName: author.teams.find((t) => t.id === input.teamId)?.name ?? previous?.teamName ?? '',
     status: previous?.status ?? 'draft',
     version: previous?.version ?? 0,
-    estimate: { ...computeEstimate(input, { settings: estimateSettingsInUse() }), settingsVersion: settingsVersionInUse() },
+    estimate: { ...estimate, settingsVersion: settingsVersionInUse() },
     createdAt: previous?.createdAt ?? now,
     updatedAt: now,
     submittedAt: previous?.submittedAt ?? null,

@@ -1,4 +1,6 @@
-import { SettingsVersionSchema, type SettingsVersion } from '#shared/schemas/settings'
+import { defaultObserverTerm } from '#shared/domain/estimate'
+import { ObserverTermSchema } from '#shared/schemas/exam'
+import { SettingsVersionSchema, type SettingsInForce, type SettingsVersion } from '#shared/schemas/settings'
 import { UserSchema, type User } from '#shared/schemas/user'
 import { db } from './index'
 
@@ -36,7 +38,7 @@ const SETTINGS_KEY = 'settings'
 const settingsVersionKey = (version: number) => `settings-version:${version}`
 
 /** Keeps the settings in force, so estimates on this device use them offline too (and, by number, for past estimates). */
-export async function saveSettingsCopy(settings: SettingsVersion): Promise<void> {
+export async function saveSettingsCopy(settings: SettingsInForce): Promise<void> {
   const value = JSON.parse(JSON.stringify(settings))
   await db.meta.bulkPut([
     { key: SETTINGS_KEY, value },
@@ -54,7 +56,12 @@ export async function loadSettingsVersionCopy(version: number): Promise<Settings
   return parsed.success && parsed.data.version === version ? parsed.data : null
 }
 
-export async function loadSettingsCopy(): Promise<SettingsVersion | null> {
-  const parsed = SettingsVersionSchema.safeParse((await db.meta.get(SETTINGS_KEY))?.value)
-  return parsed.success ? parsed.data : null
+// Copies kept by earlier app versions carry no error term: those versions always estimated with the default one.
+const KeptSettingsSchema = SettingsVersionSchema.extend({ observerTerm: ObserverTermSchema.optional() })
+
+/** The settings in force as last received, with their error term (the default term for an older copy without one). */
+export async function loadSettingsCopy(): Promise<SettingsInForce | null> {
+  const parsed = KeptSettingsSchema.safeParse((await db.meta.get(SETTINGS_KEY))?.value)
+  if (!parsed.success) return null
+  return { ...parsed.data, observerTerm: parsed.data.observerTerm ?? defaultObserverTerm(parsed.data.values.estimate) }
 }

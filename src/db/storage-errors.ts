@@ -1,4 +1,4 @@
-/** What to tell the user when IndexedDB refuses a write (RELIABILITY.md §2, failure modes 2–6). */
+/** What to tell the user when IndexedDB refuses a write: no space left, storage not allowed, or a lost connection. */
 export function storageProblem(e: unknown): string {
   const error = e as { name?: string; inner?: { name?: string }; message?: string } | null
   const names = [error?.name, error?.inner?.name]

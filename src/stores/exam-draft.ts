@@ -9,7 +9,7 @@ import { loadLocalExam } from '@/db/local-exams'
 import { queueAndSync } from './exam-save'
 import { useSessionStore } from './session'
 import { useSyncStore } from './sync'
-import { BEDSIDE_STEPS, draftErrors, errorsToShow, liveEstimate, parseDraft, stepOfField } from '@/components/bedside/bedside-steps'
+import { BEDSIDE_STEPS, draftErrors, errorsToShow, liveEstimate, parseDraft, reviewedBand, stepOfField } from '@/components/bedside/bedside-steps'
 
 const AUTOSAVE_DELAY_MS = 250
 
@@ -138,11 +138,16 @@ export const useExamDraftStore = defineStore('exam-draft', () => {
     return { kind: 'invalid', step: first }
   }
 
-  /** Saves the exam on this device and queues it for the server, then syncs; the draft stays on this device. */
+  /**
+   * Saves the exam on this device and queues it for the server, then syncs; the draft stays on this device. The band
+   * shown at review goes with it, so the server can say so should its own band differ.
+   */
   async function saveToLog(): Promise<SaveOutcome> {
     const row = draft.value
     if (!row) return { kind: 'failed', message: 'No exam is open.' }
-    const input = parseDraft(row)
+    const parsed = parseDraft(row)
+    const shown = liveEstimate(row)
+    const input = parsed && shown && !Object.keys(errors.value).length ? { ...parsed, reviewed: reviewedBand(shown) } : null
     if (!input) {
       attemptedSteps.value = BEDSIDE_STEPS.map((_, index) => index)
       const first = Math.min(...Object.keys(errors.value).map(stepOfField))

@@ -2,7 +2,7 @@ import { defineStore } from 'pinia'
 import { computed, ref } from 'vue'
 import { ExamListQuerySchema, type Exam, type ExamListQuery } from '#shared/schemas/exam'
 import { isHTTPError } from 'ky'
-import { fetchExam, fetchExams, submitExam } from '@/api/exams'
+import { fetchExam, fetchExams, submitExam, updateExam } from '@/api/exams'
 import { listLocalExams, unsentExams, type UnsentState } from '@/db/local-exam-list'
 import { loadLocalExam } from '@/db/local-exams'
 import { loadLastSync } from '@/db/meta'
@@ -105,10 +105,24 @@ export const useExamsStore = defineStore('exams', () => {
     }
   }
 
-  /** Sends the open exam for countersignature and keeps the server's new copy. */
-  async function submit(id: string) {
+  /**
+   * Records on the server that the examiner confirmed the column is venous, with the band on screen as the one
+   * reviewed (so the record says so should the server's band differ).
+   */
+  async function confirmVenous(exam: Exam) {
+    const { bandCmH2O, observerSource, settingsVersion } = exam.estimate
+    const reviewed = settingsVersion === undefined ? { bandCmH2O, observerSource } : { bandCmH2O, observerSource, settingsVersion }
+    return updateExam(exam.id, { baseVersion: exam.version, venousConfirmed: true, reviewed })
+  }
+
+  /**
+   * Sends the open exam for countersignature and keeps the server's new copy; with `confirmVenous`, first records the
+   * examiner's confirmation that the column is venous (required when arterial evidence was recorded).
+   */
+  async function submit(id: string, options: { confirmVenous?: boolean } = {}) {
     submitting.value = true
     try {
+      if (options.confirmVenous && current.value?.id === id) current.value = await confirmVenous(current.value)
       const exam = await submitExam(id)
       current.value = exam
       exams.value = exams.value.map((row) => (row.id === id ? exam : row))

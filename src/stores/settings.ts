@@ -1,12 +1,14 @@
 import { defineStore } from 'pinia'
 import { ref } from 'vue'
-import type { OffsetModel } from '#shared/schemas/exam'
+import type { ObserverTerm, OffsetModel } from '#shared/schemas/exam'
+import { defaultObserverTerm } from '#shared/domain/estimate'
 import {
   DEFAULT_APP_SETTINGS,
   DEFAULT_ESTIMATE_SETTINGS,
   type AppSettings,
   type EstimateSettings,
   type SettingsHistoryEntry,
+  type SettingsInForce,
   type SettingsVersion,
 } from '#shared/schemas/settings'
 import { fetchSettings, fetchSettingsHistory, fetchSettingsVersion, saveSettings } from '@/api/settings'
@@ -14,12 +16,20 @@ import { loadSettingsCopy, loadSettingsVersionCopy, saveSettingsCopy, saveSettin
 
 // Device-wide, outside any one store instance: the live estimate, the device's copies of saved exams and new drafts
 // are computed in plain modules that read these; the store below is how the app loads and changes them.
-const inUse = ref<SettingsVersion | null>(null)
+const inUse = ref<SettingsInForce | null>(null)
 const olderVersions = ref<Record<number, AppSettings>>({})
 
 /** The estimate's thresholds and error terms this device uses now: the server's, its kept copy, or the defaults. */
 export function estimateSettingsInUse(): EstimateSettings {
   return inUse.value?.values.estimate ?? DEFAULT_ESTIMATE_SETTINGS
+}
+
+/**
+ * The error term the server estimates with now (the default or a local one), so the band reviewed on this device is
+ * the band the server stores; the default term of the settings in use until the server has sent one.
+ */
+export function observerTermInUse(): ObserverTerm {
+  return inUse.value?.observerTerm ?? defaultObserverTerm(estimateSettingsInUse())
 }
 
 /** The version of the settings in use; undefined while this device has never received any (it then uses the defaults). */
@@ -85,9 +95,21 @@ export const useSettingsStore = defineStore('settings', () => {
   /** The admin's list of recent versions, newest first. */
   const history = ref<SettingsHistoryEntry[]>([])
 
-  function keep(settings: SettingsVersion) {
+  function keep(settings: SettingsInForce) {
     inUse.value = settings
     remember(settings)
+  }
+
+  /**
+   * An admin's save answers with the new version: a local term stays (it rests on exams, not on these values), a
+   * default one follows the new default observer error, unless the answer carries the term itself.
+   */
+  function keepSaved(settings: SettingsVersion & { observerTerm?: ObserverTerm }): SettingsInForce {
+    const earlier = inUse.value?.observerTerm
+    const local = earlier && earlier.source !== 'default' ? earlier : undefined
+    const inForce = { ...settings, observerTerm: settings.observerTerm ?? local ?? defaultObserverTerm(settings.values.estimate) }
+    keep(inForce)
+    return inForce
   }
 
   /** After sign-in: the device's copy at once, then the server's, which is kept for offline use. */
@@ -119,8 +141,7 @@ export const useSettingsStore = defineStore('settings', () => {
   /** Saves the admin's values; 'stale' when someone saved a newer version first, which then becomes `current`. */
   async function save(values: AppSettings): Promise<'saved' | 'stale'> {
     const result = await saveSettings(values, inUse.value?.version ?? 1)
-    keep(result.settings)
-    await saveSettingsCopy(result.settings).catch(() => undefined)
+    await saveSettingsCopy(keepSaved(result.settings)).catch(() => undefined)
     return result.kind
   }
 

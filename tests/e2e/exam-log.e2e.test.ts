@@ -5,11 +5,13 @@ import { DEMO_PASSWORD, launchChromium, signInAs, startDemoServer } from './brow
 import { WORKED_EXAMPLE_FINDINGS } from '../shared/worked-example.ts'
 
 const RESIDENT = 'resident@saltmarsh.test'
+// Sign-in hashes a password and the first visit loads lazy chunks: allow more than expect.poll's 1 s.
+const WAIT = { timeout: 10_000 }
 
 let server: Awaited<ReturnType<typeof startDemoServer>>
 let browser: Browser
 let examId: string
-/** The band the server stored, as the log prints it: with the demo's pairs σ_observer is local (§4.4), not the default. */
+/** The band the server stored, as the log prints it: with the demo's pairs the error term is local, not the default. */
 let band: string
 const patientCode = `SM-LOG-${randomUUID().slice(0, 6).toUpperCase()}`
 
@@ -23,7 +25,7 @@ async function apiAs(email: string) {
   return { headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' }, teamId: user.teams[0]!.id }
 }
 
-/** The worked example of PRODUCT.md §4 (h = 4 cm at 45°, ruler, incline-adjusted), created through the real API. */
+/** The worked example (h = 4 cm at 45°, ruler, incline-adjusted), created through the real API. */
 async function createWorkedExample() {
   const { headers, teamId } = await apiAs(RESIDENT)
   const body = {
@@ -36,14 +38,14 @@ async function createWorkedExample() {
   const response = await fetch(`${server.url}/api/exams`, { method: 'POST', headers, body: JSON.stringify(body) })
   expect(response.status).toBe(201)
   const { estimate } = (await response.json()) as { estimate: { bandCmH2O: [number, number]; observerSource: string } }
-  expect(estimate.observerSource).toBe('local')
+  expect(estimate.observerSource).toMatch(/^local-/)
   return { id: body.id, band: estimate.bandCmH2O.map((v) => v.toFixed(1)).join('–') }
 }
 
 async function signedInPage(context: BrowserContext) {
   const page = await context.newPage()
   await signInAs(page, server.url, RESIDENT)
-  await expect.poll(() => page.getByTestId('nav-exams').isVisible()).toBe(true)
+  await expect.poll(() => page.getByTestId('nav-exams').isVisible(), WAIT).toBe(true)
   return page
 }
 
@@ -70,14 +72,14 @@ describe('the exam log in Chromium', () => {
     await page.getByTestId('filter-patient').locator('input').fill(patientCode)
     await page.getByTestId('filter-patient').locator('input').press('Enter')
     const row = page.getByTestId('exam-table').locator('tbody tr', { hasText: patientCode })
-    await expect.poll(() => row.isVisible()).toBe(true)
+    await expect.poll(() => row.isVisible(), WAIT).toBe(true)
     expect(await row.textContent()).toContain(band)
     await row.click()
 
-    await expect.poll(() => new URL(page.url()).pathname).toBe(`/exams/${examId}`)
-    await expect.poll(() => page.getByTestId('exam-estimate-cmh2o').textContent()).toContain('13.7')
+    await expect.poll(() => new URL(page.url()).pathname, WAIT).toBe(`/exams/${examId}`)
+    await expect.poll(() => page.getByTestId('exam-estimate-cmh2o').textContent(), WAIT).toContain('13.7')
     await page.getByTestId('exam-copy-note').click()
-    await expect.poll(() => page.getByTestId('exam-snackbar').textContent()).toContain('Note copied')
+    await expect.poll(() => page.getByTestId('exam-snackbar').textContent(), WAIT).toContain('Note copied')
     const note = await page.evaluate(() => navigator.clipboard.readText())
     expect(note).toContain('13.7 cmH₂O')
     expect(note).toContain(`patient ${patientCode}`)
@@ -90,7 +92,7 @@ describe('the exam log in Chromium', () => {
 
     await page.goto(`${server.url}/exams`)
     const row = page.getByTestId('exam-table').locator('tbody tr', { hasText: patientCode })
-    await expect.poll(() => row.isVisible()).toBe(true)
+    await expect.poll(() => row.isVisible(), WAIT).toBe(true)
 
     expect(await row.textContent()).toContain(`13.7 (${band})`)
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(360)

@@ -27,7 +27,7 @@ describe('calibration rounds in Chromium', () => {
     const rows = page.getByTestId('round-bias-row')
     await expect.poll(() => rows.count(), WAIT).toBe(4)
     expect(await page.getByTestId('round-bias-table').textContent()).toContain('Dr Tomas Lindqvist')
-    // The educator is not one of the round's examiners: the missing entry's code arrives as its keyed pseudonym (§2).
+    // The educator is not one of the round's examiners: the missing entry's code arrives as its keyed pseudonym.
     const missing = page.getByTestId('round-missing-list')
     await expect.poll(() => missing.textContent(), WAIT).toMatch(/P-[0-9a-f]{8} — Dr Aiko Brennan/)
     expect(await missing.textContent()).not.toContain('SM-0316')

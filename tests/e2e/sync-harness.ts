@@ -38,14 +38,14 @@ async function next(page: Page, expectedTitle: string) {
   await expect.poll(() => title(page), WAIT).toBe(expectedTitle)
 }
 
-/** Records §4's worked example through the bedside flow, up to the review; answers the exam id. */
+/** Records the worked example through the bedside flow, up to the review; answers the exam id. */
 export async function recordUpToReview(page: Page, baseUrl: string, patientCode = 'SM-0142'): Promise<string> {
   await page.goto(`${baseUrl}/record`)
   await expect.poll(() => title(page), WAIT).toBe('Patient and position')
   await page.getByTestId('patient-code').locator('input').fill(patientCode)
   await page.getByTestId('inclination-input').locator('input').fill('45')
   await next(page, 'Pulsation')
-  for (const sign of ['not-palpable', 'double-peaked', 'falls-on-inspiration']) await page.getByTestId(`sign-${sign}`).locator('input').check()
+  for (const sign of ['not-palpable', 'double-peaked', 'falls-on-inspiration']) await page.getByTestId(`sign-${sign}-present`).click()
   await next(page, 'Height')
   await page.getByTestId('column-top-seen').locator('input').check()
   await page.getByTestId('height-cm').locator('input').fill('4')

@@ -1,11 +1,13 @@
 import { computeEstimate } from '#shared/domain/estimate'
-import { ExamFindingsSchema, ExamSchema, type Exam } from '#shared/schemas/exam'
+import { ExamFindingsSchema, ExamSchema, type Exam, type ExamFindingsInput } from '#shared/schemas/exam'
 import { WORKED_EXAMPLE_FINDINGS } from './worked-example.ts'
 
 let serial = 0
 
-/** An ExamSchema-valid exam as the API returns it: the §4 worked example (h = 4 cm at 45°, ruler) unless overridden. */
-export function makeApiExam(overrides: Partial<Omit<Exam, 'estimate'>> = {}): Exam {
+type ExamOverrides = Partial<Omit<Exam, 'estimate' | 'venousSigns'>> & { venousSigns?: ExamFindingsInput['venousSigns'] }
+
+/** An ExamSchema-valid exam as the API returns it: the worked example (h = 4 cm at 45°, ruler) unless overridden. */
+export function makeApiExam(overrides: ExamOverrides = {}): Exam {
   serial += 1
   const fields = {
     id: `0b6b4a52-5d4e-4f7e-9d57-${String(serial).padStart(12, '0')}`,

@@ -1,4 +1,4 @@
-import { ExamFindingsSchema, type ExamFindings, type ExamFindingsInput } from '#shared/schemas/exam'
+import { ExamFindingsSchema, type ExamFindings, type ExamFindingsInput, type ObserverTerm } from '#shared/schemas/exam'
 
 /** Findings parsed like the API does, so every default applies; a vertical 4 cm reading at 45° unless overridden. */
 export function makeFindings(overrides: Partial<ExamFindingsInput> = {}): ExamFindings {
@@ -12,6 +12,11 @@ export function makeFindings(overrides: Partial<ExamFindingsInput> = {}): ExamFi
     offsetModel: 'incline-adjusted',
     ...overrides,
   })
+}
+
+/** A local error term as the server would hand it over: σ_exam from 40 routine pairs unless overridden. */
+export function makeLocalTerm(overrides: Partial<ObserverTerm> = {}): ObserverTerm {
+  return { source: 'local-pairs', sigmaCm: 1.2, n: 40, ci: [1.0, 1.5], ...overrides }
 }
 
 /** A raw create-exam body, as a client would send it. */

@@ -1,6 +1,9 @@
 import type { ExamInputRaw } from '#shared/schemas/exam'
 
-/** The findings of PRODUCT.md §4's worked example: vertical h = 4 cm at 45°, ruler, incline-adjusted → 13.7 cmH₂O. */
+/**
+ * The findings of the worked example: vertical h = 4 cm at 45°, ruler, incline-adjusted → 13.7 cmH₂O, band 9.2–18.2.
+ * Three venous signs present (Cook & Simel 1996, JAMA 275:630–634), none absent: no arterial evidence, no warning.
+ */
 export const WORKED_EXAMPLE_FINDINGS = {
   inclinationDeg: 45,
   inclinationSource: 'entered',
@@ -10,7 +13,7 @@ export const WORKED_EXAMPLE_FINDINGS = {
   heightCm: 4,
   readingPrecision: 'ruler',
   offsetModel: 'incline-adjusted',
-  venousSigns: ['not-palpable', 'double-peaked', 'falls-on-inspiration'],
+  venousSigns: { 'not-palpable': 'present', 'double-peaked': 'present', 'falls-on-inspiration': 'present' },
   rhythm: 'sinus',
   waveform: { aWave: 'normal', vWave: 'normal', yDescent: 'normal' },
   respiratory: 'falls-on-inspiration',

@@ -10,7 +10,7 @@ const READING_COLUMNS = ['exam_id', 'examiner', 'role', 'team', 'examined_at', '
  * `patient_code` (masked for educators, as on screen), `difference_order` (`resident-minus-attending` or
  * `earlier-minus-later`), `difference_cm` (first − second height above the sternal angle), `mean_cm`, `minutes_apart`,
  * then for the `first_` and `second_` reading of the difference: exam id, examiner's name, role, team, time (ISO 8601,
- * UTC), height (cm), trunk inclination (°), vein, CVP category (low/normal/high) and elevated (h > 3 cm, the default of §4.6, by which agreement judges both readings alike: true/false).
+ * UTC), height (cm), trunk inclination (°), vein, CVP category (low/normal/high) and elevated (h > 3 cm, McGee 1998's threshold and the default setting, by which agreement judges both readings alike: true/false).
  */
 export const PAIR_CSV_COLUMNS = [
   'patient_code',
@@ -22,7 +22,7 @@ export const PAIR_CSV_COLUMNS = [
   ...READING_COLUMNS.map((c) => `second_${c}`),
 ]
 
-/** The last row: the caution (§4.7) in the first column, the rest empty, so a spreadsheet shows it under the data. */
+/** The last row: the caution in the first column, the rest empty, so a spreadsheet shows it under the data. */
 export const CSV_CAUTION = `Caution: ${CAUTION_TEXT}`
 
 const round = (value: number, dp: number) => Number(value.toFixed(dp))

@@ -1,17 +1,22 @@
-import { ExamFindingsSchema, ExamInputSchema, type Estimate, type ExamFindings, type ExamInput } from '#shared/schemas/exam'
+import { ExamFindingsSchema, ExamFindingsShape, ExamInputSchema, type EstimateV2, type ExamFindings, type ExamInput, type ReviewedBand } from '#shared/schemas/exam'
 import { computeEstimate } from '#shared/domain/estimate'
 import type { DraftFields, DraftRow } from '@/db/draft-schema'
-import { estimateSettingsInUse } from '@/stores/settings'
+import { estimateSettingsInUse, observerTermInUse, settingsVersionInUse } from '@/stores/settings'
+import { flowErrors } from './bedside-checks'
+import { draftInput } from './bedside-input'
 
 type FieldName = keyof DraftFields
 
-/** The flow's steps in order, each with the record fields it asks for. */
+/** The flow's steps in order, each with the record fields (and the flow's own confirmations) it asks for. */
 export const BEDSIDE_STEPS: readonly { title: string; fields: readonly FieldName[] }[] = [
-  { title: 'Patient and position', fields: ['roundId', 'patientCode', 'teamId', 'examinedAt', 'inclinationDeg', 'inclinationSource', 'vein'] },
+  { title: 'Patient and position', fields: ['roundId', 'patientCode', 'teamId', 'examinedAt', 'inclinationDeg', 'inclinationSource', 'inclinationConfirmed', 'vein'] },
   { title: 'Pulsation', fields: ['venousSigns', 'rhythm'] },
-  { title: 'Height', fields: ['columnTop', 'heightMethod', 'heightCm', 'alongNeckCm', 'readingPrecision'] },
-  { title: 'Waveform and manoeuvres', fields: ['waveform', 'respiratory', 'abdominojugular', 'notes'] },
-  { title: 'Review', fields: ['offsetModel'] },
+  {
+    title: 'Height',
+    fields: ['columnTop', 'heightMethod', 'heightCm', 'alongNeckCm', 'readingPrecision', 'notAssessableReason', 'notAssessableText', 'aboveNeckConfirmedDeg'],
+  },
+  { title: 'Waveform and manoeuvres', fields: ['waveform', 'respiratory', 'abdominojugular', 'context', 'notes'] },
+  { title: 'Review', fields: ['offsetModel', 'venousConfirmed'] },
 ]
 export const LAST_STEP = BEDSIDE_STEPS.length - 1
 
@@ -22,15 +27,7 @@ export function stepOfField(key: string): number {
   return index === -1 ? LAST_STEP : index
 }
 
-/** The draft as the shared input schema expects it; an undone abdominojugular test sends no numbers. */
-export function draftInput(row: Pick<DraftRow, 'id' | 'fields'>): Record<string, unknown> {
-  const { abdominojugular, ...rest } = row.fields
-  const done = abdominojugular?.done ?? false
-  const test = done ? { done, riseCm: abdominojugular?.riseCm ?? undefined, sustained: abdominojugular?.sustained } : { done }
-  return { ...rest, id: row.id, abdominojugular: test }
-}
-
-// Valid stand-ins for the other steps' fields: zod skips the height refinement while any other field fails.
+// Valid stand-ins for the other steps' fields: zod skips the refinements while any other field fails.
 const STAND_INS: Record<string, unknown> = {
   patientCode: 'X',
   teamId: 'x',
@@ -38,11 +35,18 @@ const STAND_INS: Record<string, unknown> = {
   inclinationDeg: 45,
   vein: 'right-internal',
   columnTop: 'not-assessable',
+  notAssessableReason: 'habitus',
+}
+
+// The height step's checks read the inclination of the first step (along the neck, "not filled"): a valid one is used.
+function readInclination(input: Record<string, unknown>) {
+  const parsed = ExamFindingsShape.inclinationDeg.safeParse(input.inclinationDeg)
+  return parsed.success ? { inclinationDeg: parsed.data } : {}
 }
 
 function errorsOfStep(input: Record<string, unknown>, step: number): Record<string, string> {
   const own = Object.fromEntries(BEDSIDE_STEPS[step]!.fields.map((name) => [name, input[name]]))
-  const result = ExamInputSchema.safeParse({ ...STAND_INS, id: input.id, ...own })
+  const result = ExamInputSchema.safeParse({ ...STAND_INS, ...readInclination(input), id: input.id, ...own })
   const errors: Record<string, string> = {}
   for (const issue of result.error?.issues ?? []) {
     const key = issue.path.join('.')
@@ -51,14 +55,16 @@ function errorsOfStep(input: Record<string, unknown>, step: number): Record<stri
   return errors
 }
 
-/** Field errors of every step, keyed by field path, judged by the shared exam schema. */
+/** Field errors of every step, keyed by field path: the shared exam schema's, then the flow's own confirmations. */
 export function draftErrors(row: Pick<DraftRow, 'id' | 'fields'>): Record<string, string> {
   const input = draftInput(row)
-  return Object.assign({}, ...BEDSIDE_STEPS.map((_, step) => errorsOfStep(input, step)))
+  const schema = Object.assign({}, ...BEDSIDE_STEPS.map((_, step) => errorsOfStep(input, step))) as Record<string, string>
+  return { ...flowErrors(row.fields), ...schema }
 }
 
+// An unticked box is as unanswered as an empty field: its error waits until the step was attempted.
 function filled(value: unknown) {
-  return value !== undefined && value !== null && value !== ''
+  return value !== undefined && value !== null && value !== '' && value !== false
 }
 
 /** The errors worth showing: a typed value's at once, an empty field's only once its step was attempted. */
@@ -81,8 +87,20 @@ export function draftFindings(row: Pick<DraftRow, 'id' | 'fields'>): ExamFinding
   return result.success ? result.data : null
 }
 
-/** The live estimate of a draft under the settings in use, or null while the findings are incomplete. */
-export function liveEstimate(row: Pick<DraftRow, 'id' | 'fields'>): Estimate | null {
+/**
+ * The live estimate of a draft with the settings and the error term the server uses now (so the band reviewed here is
+ * the band it stores), or null while the findings are incomplete.
+ */
+export function liveEstimate(row: Pick<DraftRow, 'id' | 'fields'>): EstimateV2 | null {
   const findings = draftFindings(row)
-  return findings ? computeEstimate(findings, { settings: estimateSettingsInUse() }) : null
+  if (!findings) return null
+  const estimate = computeEstimate(findings, { settings: estimateSettingsInUse(), observer: observerTermInUse() })
+  const settingsVersion = settingsVersionInUse()
+  return settingsVersion === undefined ? estimate : { ...estimate, settingsVersion }
+}
+
+/** The band the examiner reviewed, sent with the save so the server can say when the band it stores differs. */
+export function reviewedBand(estimate: EstimateV2): ReviewedBand {
+  const { bandCmH2O, observerSource, settingsVersion } = estimate
+  return settingsVersion === undefined ? { bandCmH2O, observerSource } : { bandCmH2O, observerSource, settingsVersion }
 }

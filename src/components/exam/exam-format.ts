@@ -1,4 +1,4 @@
-import type { Bound, CvpCategory, Estimate, OffsetModel } from '#shared/schemas/exam'
+import type { Bound, Caution, ContextFlag, CvpCategory, Estimate, ObserverSource, ObserverTerm, OffsetModel } from '#shared/schemas/exam'
 import { DEFAULT_ESTIMATE_SETTINGS, type EstimateSettings } from '#shared/schemas/settings'
 
 type Band = [number | null, number | null] | null
@@ -20,21 +20,61 @@ export function formatBand(band: Band, unit: string): string {
 
 export const BOUND_WORDING: Record<Bound, { prefix: string; explanation: string }> = {
   point: { prefix: '', explanation: 'Column top seen: a point estimate.' },
-  lower: { prefix: 'At least', explanation: 'The column top was above the visible neck, so the CVP is at least this.' },
-  upper: { prefix: 'At most', explanation: 'No column was seen even lying flat, so the CVP is at most the offset at this angle.' },
+  lower: {
+    prefix: 'At least',
+    explanation: 'The column top was above the visible neck, so the CVP is at least this; the band gives its one-sided 95% lower limit.',
+  },
+  upper: {
+    prefix: 'At most',
+    explanation: 'No column was seen even lying flat, so the CVP is at most the offset at this angle; the band gives its one-sided 95% upper limit.',
+  },
   none: { prefix: 'Not estimable', explanation: 'The column top could not be assessed, so there is no estimate.' },
 }
 
-export const CATEGORY_LABELS: Record<CvpCategory, string> = { low: 'Low CVP (< 5)', normal: 'Normal CVP (5–10)', high: 'High CVP (> 10)' }
-
 /**
- * A category with the limits of the settings it was judged by; `null` when those settings are not known on this
- * device, and then without limits (the stored category stands, but no other version's limits may be put beside it).
+ * The limits of the categories an estimate reaches, in the settings it was judged by ("normal 5–10, high > 10
+ * cmH₂O"); null when those settings are not known on this device (no other version's limits may stand beside it).
  */
-export function categoryLabel(category: CvpCategory, settings: EstimateSettings | null = DEFAULT_ESTIMATE_SETTINGS): string {
-  if (!settings) return { low: 'Low CVP', normal: 'Normal CVP', high: 'High CVP' }[category]
+export function categoryLimits(categories: readonly CvpCategory[], settings: EstimateSettings | null = DEFAULT_ESTIMATE_SETTINGS): string | null {
+  if (!settings || !categories.length) return null
   const [low, high] = [formatLimit(settings.lowBelowCmH2O), formatLimit(settings.highAboveCmH2O)]
-  return { low: `Low CVP (< ${low})`, normal: `Normal CVP (${low}–${high})`, high: `High CVP (> ${high})` }[category]
+  const limits = { low: `low < ${low}`, normal: `normal ${low}–${high}`, high: `high > ${high}` }
+  return `${categories.map((category) => limits[category]).join(', ')} cmH₂O`
+}
+
+export const CONTEXT_LABELS: Record<ContextFlag, string> = {
+  'positive-pressure-ventilation': 'Positive-pressure ventilation',
+  'svc-obstruction-suspected': 'Superior vena cava obstruction suspected',
+  'tense-ascites': 'Tense ascites',
+}
+
+export const OBSERVER_SOURCE_LABELS: Record<ObserverSource, string> = {
+  default: 'the default error terms (product defaults)',
+  'local-pairs': 'the local error term from paired exams',
+  'local-rounds': 'the local error term from calibration rounds',
+}
+
+/** The error term an estimate was computed with, when it stored one (first-rules estimates did not). */
+export function observerTermOf(estimate: Estimate): ObserverTerm | undefined {
+  if (estimate.observerSigmaCm === null) return undefined
+  return { source: estimate.observerSource, sigmaCm: estimate.observerSigmaCm, n: estimate.observerN, ci: estimate.observerSigmaCi }
+}
+
+/** Where each measurement caution is shown: first of all, beside the number, beside the statements, or with the rest. */
+export function cautionsAt(estimate: Estimate, place: 'first' | 'number' | 'statements' | 'other'): Caution[] {
+  return estimate.cautions.filter((caution) => CAUTION_PLACE[caution.code] === place)
+}
+
+const CAUTION_PLACE: Record<Caution['code'], 'first' | 'number' | 'statements' | 'other'> = {
+  'arterial-evidence': 'first',
+  'left-sided-vein': 'number',
+  'outside-studied-range': 'number',
+  'convention-offset': 'number',
+  'frame-disagreement': 'statements',
+  'few-venous-signs': 'other',
+  'positive-pressure-ventilation': 'other',
+  'svc-obstruction-suspected': 'other',
+  'tense-ascites': 'other',
 }
 
 /** Short names of the estimate settings, as a note on a past estimate lists those changed since. */

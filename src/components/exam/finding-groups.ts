@@ -1,6 +1,7 @@
 import { VEIN_LABEL, VENOUS_SIGN_LABEL, oneDp } from '#shared/domain/exam-note'
-import type { Exam } from '#shared/schemas/exam'
+import { VenousSignSchema, type Exam, type NotAssessableReason, type VenousSignState } from '#shared/schemas/exam'
 import { formatDateTime } from '@/utils/format'
+import { CONTEXT_LABELS } from './exam-format'
 
 export interface FindingGroup {
   title: string
@@ -22,6 +23,15 @@ const RESPIRATORY: Record<Exam['respiratory'], string> = {
   'not-assessed': 'Not assessed',
 }
 
+const REASONS: Record<NotAssessableReason, string> = {
+  habitus: 'Body habitus',
+  'lines-or-dressings': 'Lines or dressings over the neck',
+  'cannot-position': 'Patient could not be positioned',
+  ventilated: 'Mechanical ventilation',
+  agitated: 'Patient agitated or moving',
+  other: 'Other',
+}
+
 const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1).replace(/-/g, ' ')
 
 function positionRows(exam: Exam): FindingGroup['rows'] {
@@ -31,20 +41,33 @@ function positionRows(exam: Exam): FindingGroup['rows'] {
     ['Team', exam.teamName],
     ['Inclination', `${exam.inclinationDeg}° from horizontal (${exam.inclinationSource === 'sensor' ? 'measured by phone' : 'entered'})`],
     ['Vein', capitalise(VEIN_LABEL[exam.vein])],
+    ['Circumstances', exam.context.map((flag) => CONTEXT_LABELS[flag]).join(', ') || 'None recorded'],
   ]
 }
 
+function signsIn(exam: Exam, state: VenousSignState): string {
+  return VenousSignSchema.options.filter((sign) => exam.venousSigns[sign] === state).map((sign) => VENOUS_SIGN_LABEL[sign]).join(', ')
+}
+
 function pulsationRows(exam: Exam): FindingGroup['rows'] {
-  const signs = exam.venousSigns.map((sign) => VENOUS_SIGN_LABEL[sign]).join(', ')
-  return [
-    ['Venous features', `${exam.venousSigns.length} of 6${signs ? `: ${signs}` : ''}`],
+  const present = signsIn(exam, 'present')
+  const rows: FindingGroup['rows'] = [
+    ['Venous signs present', present || 'None'],
+    ['Absent', signsIn(exam, 'absent') || 'None'],
+    ['Not tested', signsIn(exam, 'not-tested') || 'None'],
     ['Rhythm', capitalise(exam.rhythm)],
   ]
+  if (exam.venousConfirmed) rows.push(['Column', 'Confirmed venous by the examiner'])
+  return rows
 }
 
 function heightRows(exam: Exam): FindingGroup['rows'] {
   const h = exam.estimate.heightCm
   const rows: FindingGroup['rows'] = [['Column top', COLUMN_TOP[exam.columnTop]]]
+  if (exam.columnTop === 'not-assessable' && exam.notAssessableReason) {
+    const text = exam.notAssessableReason === 'other' && exam.notAssessableText ? `: ${exam.notAssessableText}` : ''
+    rows.push(['Reason', `${REASONS[exam.notAssessableReason]}${text}`])
+  }
   if (exam.columnTop !== 'seen' && exam.columnTop !== 'above-neck') return rows
   rows.push(['Method', exam.heightMethod === 'vertical' ? 'Vertical rule at the sternal angle' : 'Along the neck'])
   if (exam.heightMethod === 'along-neck') rows.push(['Along the neck', `${oneDp(exam.alongNeckCm ?? 0)} cm`])
@@ -53,15 +76,20 @@ function heightRows(exam: Exam): FindingGroup['rows'] {
   return rows
 }
 
-function waveformRows(exam: Exam): FindingGroup['rows'] {
-  const aj = exam.abdominojugular
+function abdominojugularText(aj: Exam['abdominojugular']): string {
+  if (!aj.done) return 'Not done'
   const rise = aj.riseCm === undefined ? 'rise not recorded' : `rise ${oneDp(aj.riseCm)} cm`
+  const fall = aj.fallOnReleaseCm === undefined ? '' : `, fall on release ${oneDp(aj.fallOnReleaseCm)} cm`
+  return `Done, ${rise}${aj.sustained ? ', sustained' : ', not sustained'}${fall}`
+}
+
+function waveformRows(exam: Exam): FindingGroup['rows'] {
   return [
     ['a wave', capitalise(exam.waveform.aWave)],
     ['v wave', capitalise(exam.waveform.vWave)],
     ['y descent', capitalise(exam.waveform.yDescent)],
     ['Respiration', RESPIRATORY[exam.respiratory]],
-    ['Abdominojugular test', aj.done ? `Done, ${rise}${aj.sustained ? ', sustained' : ', not sustained'}` : 'Not done'],
+    ['Abdominojugular test', abdominojugularText(exam.abdominojugular)],
   ]
 }
 

@@ -7,7 +7,7 @@ export interface NumberSetting {
   label: string
   unit: string
   step: number
-  /** Where the default comes from (PRODUCT.md §4.4, §4.6, §6; CLINICAL.md). */
+  /** Where the default comes from: a published source, or a product default. */
   source: string
 }
 

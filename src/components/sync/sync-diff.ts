@@ -1,7 +1,8 @@
 import { ExamInputSchema, type Exam, type ExamInput } from '#shared/schemas/exam'
 import { formatDateTime } from '@/utils/format'
 
-type Field = Exclude<keyof ExamInput, 'id'>
+// The band reviewed is what the examiner saw, not a finding of the record: it is never compared.
+type Field = Exclude<keyof ExamInput, 'id' | 'reviewed'>
 
 const LABELS: Record<Field, string> = {
   patientCode: 'Patient code',
@@ -17,10 +18,14 @@ const LABELS: Record<Field, string> = {
   readingPrecision: 'Reading',
   offsetModel: 'Offset model',
   venousSigns: 'Venous signs',
+  venousConfirmed: 'Column confirmed venous',
   rhythm: 'Rhythm',
   waveform: 'Waveform',
   respiratory: 'With respiration',
   abdominojugular: 'Abdominojugular test',
+  notAssessableReason: 'Why not assessable',
+  notAssessableText: 'Reason (other)',
+  context: 'Circumstances',
   notes: 'Notes',
   roundId: 'Calibration round',
 }

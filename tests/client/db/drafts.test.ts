@@ -2,6 +2,7 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import { reactive } from 'vue'
 import { db } from '@/db'
 import { deleteDraft, listDrafts, loadDraft, saveDraft } from '@/db/drafts'
+import { parseDraft } from '@/components/bedside/bedside-steps'
 import { makeDraft, WORKED_EXAMPLE } from '../factories/draft'
 
 describe('drafts in IndexedDB', () => {
@@ -24,9 +25,49 @@ describe('drafts in IndexedDB', () => {
     const row = await loadDraft(draft.id)
 
     expect(row?.fields.vein).toBeUndefined()
-    expect(row?.fields.venousSigns).toEqual(['double-peaked'])
+    expect(row?.fields.venousSigns).toEqual({ 'double-peaked': 'present' })
     expect(row?.fields.patientCode).toBe('SM-0007')
     expect(row?.fields.heightCm).toBe(4)
+  })
+
+  it('a draft saved by the previous app version (a list of signs, none of the new fields) loads and still saves as an exam', async () => {
+    const { venousSigns: _signs, venousConfirmed: _confirmed, context: _context, ...older } = makeDraft(WORKED_EXAMPLE).fields
+    const draft = makeDraft()
+    await db.drafts.put({ ...draft, fields: { ...older, venousSigns: ['not-palpable', 'double-peaked', 'falls-on-inspiration'] } } as never)
+
+    const row = await loadDraft(draft.id)
+
+    expect(row?.fields.venousSigns).toEqual({ 'not-palpable': 'present', 'double-peaked': 'present', 'falls-on-inspiration': 'present' })
+    expect(row?.fields.heightCm).toBe(4)
+    expect(parseDraft(row!)).toMatchObject({
+      venousSigns: { 'not-palpable': 'present', 'double-peaked': 'present', 'falls-on-inspiration': 'present', 'changes-with-position': 'not-tested' },
+      venousConfirmed: false,
+      context: [],
+    })
+  })
+
+  it('keeps the new fields: sign states, the venous confirmation, circumstances, the fall on release and a reason', async () => {
+    const draft = makeDraft({
+      venousSigns: { 'not-palpable': 'absent' },
+      venousConfirmed: true,
+      context: ['tense-ascites'],
+      abdominojugular: { done: true, riseCm: 2, sustained: false, fallOnReleaseCm: 4 },
+      columnTop: 'not-assessable',
+      notAssessableReason: 'other',
+      notAssessableText: 'Neck brace',
+    })
+    await saveDraft(draft)
+
+    const row = await loadDraft(draft.id)
+
+    expect(row?.fields).toMatchObject({
+      venousSigns: { 'not-palpable': 'absent' },
+      venousConfirmed: true,
+      context: ['tense-ascites'],
+      abdominojugular: { fallOnReleaseCm: 4 },
+      notAssessableReason: 'other',
+      notAssessableText: 'Neck brace',
+    })
   })
 
   it('lists drafts newest first and filters by state', async () => {

@@ -7,7 +7,7 @@ import { makeUser } from '../factories/user'
 
 export const AUTHOR = makeUser({ id: 'u-1' })
 
-/** §4's worked example as a valid exam input. */
+/** The worked example (h = 4 cm at 45°) as a valid exam input. */
 export function examInput(overrides: Partial<ExamInput> = {}): ExamInput {
   return ExamInputSchema.parse({ ...WORKED_EXAMPLE, id: crypto.randomUUID(), examinedAt: '2026-03-14T09:30:00.000Z', ...overrides })
 }

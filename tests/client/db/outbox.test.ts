@@ -15,7 +15,7 @@ describe('the outbox', () => {
 
     expect(await queued()).toMatchObject([{ examId: input.id, authorId: 'u-1', baseVersion: null, state: 'pending', attempts: 0 }])
     expect(await db.exams.get(input.id)).toMatchObject({ id: input.id, ownerId: 'u-1', version: 0, status: 'draft' })
-    // h = 4 cm at 45°, Seth offset 9.7 cm → 13.7 cmH₂O (PRODUCT.md §4), computed on the device.
+    // h = 4 cm at 45°, Seth offset 9.7 cm → 13.7 cmH₂O (Seth 2002, J Gen Intern Med 17:861–865), computed on the device.
     expect((await db.exams.get(input.id))!.estimate.cvpCmH2O).toBeCloseTo(13.7, 5)
     expect((await loadDraft(input.id))?.state).toBe('saved')
   })

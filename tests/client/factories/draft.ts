@@ -1,13 +1,13 @@
 import { ExamFindingsSchema, type ExamFindings, type ExamFindingsInput } from '#shared/schemas/exam'
 import { newDraft, type DraftFields, type DraftRow } from '@/db/draft-schema'
 
-/** §4's worked example: vertical 4 cm at 45°, ruler, incline-adjusted, right internal, three venous signs. */
+/** The worked example: vertical 4 cm at 45°, ruler, incline-adjusted, right internal, three venous signs present. */
 export const WORKED_EXAMPLE: DraftFields = {
   patientCode: 'SM-0142',
   teamId: 't-1',
   inclinationDeg: 45,
   vein: 'right-internal',
-  venousSigns: ['not-palpable', 'double-peaked', 'falls-on-inspiration'],
+  venousSigns: { 'not-palpable': 'present', 'double-peaked': 'present', 'falls-on-inspiration': 'present' },
   columnTop: 'seen',
   heightMethod: 'vertical',
   heightCm: 4,

@@ -6,12 +6,16 @@ import { loadDraft } from '@/db/drafts'
 import { useExamDraftStore } from '@/stores/exam-draft'
 import { useSessionStore } from '@/stores/session'
 import { useSyncStore } from '@/stores/sync'
+import { useSettingsStore } from '@/stores/settings'
 import * as sync from '@/api/sync'
+import * as settingsApi from '@/api/settings'
+import { DEFAULT_APP_SETTINGS } from '#shared/schemas/settings'
 import { WORKED_EXAMPLE } from '../factories/draft'
 import { makeUser } from '../factories/user'
 import { makeExam } from '../components/exam/make-exam'
 
 vi.mock('@/api/sync', () => ({ pushChanges: vi.fn(), pullChanges: vi.fn() }))
+vi.mock('@/api/settings')
 
 const TEAMS = [{ id: 't-1', name: 'Cardiology A' }]
 
@@ -38,6 +42,7 @@ describe('exam draft store', () => {
     Object.assign(useSessionStore(), { user: makeUser({ id: 'u-1' }), token: 'token-of-u-1' })
     vi.mocked(sync.pushChanges).mockReset()
     vi.mocked(sync.pullChanges).mockReset().mockResolvedValue({ exams: [], cursor: 0, more: false })
+    useSettingsStore().forget()
   })
 
   afterEach(() => {
@@ -148,6 +153,103 @@ describe('exam draft store', () => {
     expect((await loadDraft(store.draft!.id))?.state).toBe('saved')
   })
 
+  it('sends the band shown at review as the band reviewed, with its error term and settings version', async () => {
+    // A local term from 40 routine pairs (σ_exam 1.2 cm) in force under settings version 3.
+    const observerTerm = { source: 'local-pairs' as const, sigmaCm: 1.2, n: 40, ci: [0.98, 1.55] as [number, number] }
+    vi.mocked(settingsApi.fetchSettings).mockResolvedValue({ version: 3, values: DEFAULT_APP_SETTINGS, changedAt: '2026-12-07T11:00:00.000Z', observerTerm })
+    await useSettingsStore().load()
+    const store = await storeWithWorkedExample()
+    const shown = store.estimate!.bandCmH2O
+    serverAnswers((id) => ({ id, result: 'applied', version: 1 }))
+
+    await store.saveToLog()
+
+    const [changes] = vi.mocked(sync.pushChanges).mock.calls[0]!
+    expect(changes[0]!.exam.reviewed).toEqual({ bandCmH2O: shown, observerSource: 'local-pairs', settingsVersion: 3 })
+    // Seth 2002 offset error 1.0 cm: σ = √(1.2² + 1.0²), band 13.7 ± 1.96σ.
+    expect(shown![0]).toBeCloseTo(13.7 - 1.96 * Math.hypot(1.2, 1), 5)
+  })
+
+  // Cook & Simel 1996 (JAMA 275:630–634): a palpable pulsation behaves like the carotid.
+  it('with a palpable pulsation recorded, saving waits on the review step until the column is confirmed venous', async () => {
+    const store = await storeWithWorkedExample()
+    store.update({ venousSigns: { ...WORKED_EXAMPLE.venousSigns, 'not-palpable': 'absent' } })
+    serverAnswers((id) => ({ id, result: 'applied', version: 1 }))
+
+    const refusedOutcome = await store.saveToLog()
+    const error = store.visibleErrors.venousConfirmed
+    store.update({ venousConfirmed: true })
+    const outcome = await store.saveToLog()
+
+    expect(refusedOutcome).toEqual({ kind: 'invalid', step: 4 })
+    expect(error).toContain('confirm that the column you measured is venous')
+    expect(outcome.kind).toBe('saved')
+    const [changes] = vi.mocked(sync.pushChanges).mock.calls[0]!
+    expect(changes[0]!.exam).toMatchObject({ venousConfirmed: true, venousSigns: { 'not-palpable': 'absent' } })
+  })
+
+  it('after a phone reading of the inclination, asks to confirm the trunk angle before leaving the first step', async () => {
+    const store = useExamDraftStore()
+    await store.startNew(TEAMS)
+    store.update({ patientCode: 'SM-0142', inclinationDeg: 40, inclinationSource: 'sensor' })
+
+    const before = await store.next()
+    const error = store.visibleErrors.inclinationConfirmed
+    store.update({ inclinationConfirmed: true })
+    const after = await store.next()
+
+    expect(before).toBe(false)
+    expect(error).toContain('The phone measured the bed back')
+    expect(after).toBe(true)
+  })
+
+  it('a column above the neck at 45° is accepted only once the examiner, asked to sit the patient up, confirms it', async () => {
+    const store = await storeWithWorkedExample()
+    store.update({ columnTop: 'above-neck' })
+    await store.goTo(2)
+
+    const before = await store.next()
+    store.update({ aboveNeckConfirmedDeg: 45 })
+    const after = await store.next()
+
+    expect(before).toBe(false)
+    expect(store.visibleErrors.aboveNeckConfirmedDeg).toBeUndefined()
+    expect(after).toBe(true)
+  })
+
+  it('"no column even lying flat" at 30° is refused on the column top', async () => {
+    const store = await storeWithWorkedExample()
+
+    store.update({ inclinationDeg: 30, columnTop: 'not-filled', heightCm: null })
+
+    expect(store.visibleErrors.columnTop).toContain('lower the bed and look again')
+    expect(store.stepIsValid(2)).toBe(false)
+  })
+
+  it('a reading along the neck at 20° is refused, asking for a vertical ruler reading', async () => {
+    const store = await storeWithWorkedExample()
+
+    store.update({ inclinationDeg: 20, heightMethod: 'along-neck', alongNeckCm: 10 })
+
+    expect(store.visibleErrors.heightMethod).toContain('hold a ruler vertical at the sternal angle')
+  })
+
+  it('a column not assessable sends its reason, and a reason left from before is not sent for a column seen', async () => {
+    const store = await storeWithWorkedExample()
+    store.update({ columnTop: 'not-assessable', notAssessableReason: 'ventilated' })
+    vi.mocked(sync.pushChanges).mockRejectedValue(new TypeError('Failed to fetch'))
+
+    await store.saveToLog()
+    store.update({ columnTop: 'seen' })
+    await store.saveToLog()
+
+    const payloads = (await db.outbox.toArray()).map((item) => item.payload)
+    expect(payloads[0]).toMatchObject({ columnTop: 'not-assessable', notAssessableReason: 'ventilated' })
+    expect(payloads.at(-1)).toMatchObject({ columnTop: 'seen' })
+    expect(payloads.at(-1)!.notAssessableReason ?? null).toBeNull()
+    expect(await db.exams.get(store.draft!.id)).toMatchObject({ columnTop: 'seen' })
+  })
+
   it('when the network fails, keeps the exam in the outbox and on this device, and the draft with it', async () => {
     const store = await storeWithWorkedExample()
     vi.mocked(sync.pushChanges).mockRejectedValue(new TypeError('Failed to fetch'))
@@ -226,6 +328,18 @@ describe('exam draft store', () => {
 
     expect(opened).toBe(true)
     expect(store.draft).toMatchObject({ id: 'exam-1', state: 'saved', step: 4, fields: { patientCode: 'SM-0142', heightCm: 4 } })
+  })
+
+  it('an exam measured by phone with the top above the neck, reopened to change, does not ask again what was confirmed', async () => {
+    const exam = makeExam({ id: 'exam-2', inclinationSource: 'sensor', columnTop: 'above-neck' })
+    await db.exams.put({ ...exam, ownerId: 'u-1' })
+    const store = useExamDraftStore()
+
+    await store.open('exam-2')
+
+    expect(store.errors.inclinationConfirmed).toBeUndefined()
+    expect(store.errors.aboveNeckConfirmedDeg).toBeUndefined()
+    expect(store.stepIsValid(0) && store.stepIsValid(2)).toBe(true)
   })
 
   it('does not open a countersigned exam to change it', async () => {

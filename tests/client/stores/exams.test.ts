@@ -102,7 +102,7 @@ describe('exams store', () => {
     useSessionStore().user = makeUser({ id: 'u-1' })
     const low = makeExam({ heightCm: 2 })
     const high = makeExam({ heightCm: 6 })
-    const unseen = makeExam({ columnTop: 'not-assessable', heightCm: null })
+    const unseen = makeExam({ columnTop: 'not-assessable', notAssessableReason: 'habitus', heightCm: null })
     await db.exams.bulkPut([unseen, high, low].map((e) => ({ ...e, ownerId: 'u-1' })))
     vi.mocked(api.fetchExams).mockRejectedValue(new TypeError('Failed to fetch'))
     const store = useExamsStore()

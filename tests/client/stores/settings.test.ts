@@ -1,6 +1,7 @@
 import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { createPinia, setActivePinia } from 'pinia'
-import { DEFAULT_APP_SETTINGS, type AppSettings, type SettingsVersion } from '#shared/schemas/settings'
+import { DEFAULT_APP_SETTINGS, type AppSettings, type SettingsInForce } from '#shared/schemas/settings'
+import type { ObserverTerm } from '#shared/schemas/exam'
 import { liveEstimate, parseDraft } from '@/components/bedside/bedside-steps'
 import { db } from '@/db'
 import { newDraft } from '@/db/draft-schema'
@@ -13,14 +14,26 @@ import { makeUser } from '../factories/user'
 
 vi.mock('@/api/settings')
 
-function version(version: number, change: Partial<Omit<AppSettings, 'estimate'>> & { estimate?: Partial<AppSettings['estimate']> } = {}): SettingsVersion {
+type Change = Partial<Omit<AppSettings, 'estimate'>> & { estimate?: Partial<AppSettings['estimate']> }
+
+function version(version: number, change: Change = {}, observerTerm?: ObserverTerm): SettingsInForce {
   const values = { ...DEFAULT_APP_SETTINGS, ...change, estimate: { ...DEFAULT_APP_SETTINGS.estimate, ...change.estimate } }
-  return { version, values, changedAt: '2026-12-07T11:00:00.000Z' }
+  const term = observerTerm ?? { source: 'default' as const, sigmaCm: values.estimate.sigmaObserverCm, n: null, ci: null }
+  return { version, values, changedAt: '2026-12-07T11:00:00.000Z', observerTerm: term }
 }
 
-// Raised thresholds (elevated > 5 cm, high > 15 cmH₂O) turn §4's worked example (h = 4 cm, 13.7 cmH₂O) from
-// elevated and high into not elevated and normal.
+// Raised thresholds (elevated > 5 cm, high > 15 cmH₂O) turn the worked example (h = 4 cm at 45°, 13.7 cmH₂O) from
+// elevated into not elevated (McGee 1998's rule with the setting's 5 cm).
 const RAISED = version(2, { estimate: { elevatedAboveCm: 5, highAboveCmH2O: 15 }, defaultOffsetModel: 'fixed-5cm' })
+
+// A local term from 40 routine pairs: σ_exam 1.2 cm replaces σ_read and σ_observer, so the worked example's σ is
+// √(1.2² + 1.0²) = 1.562 cm (Seth 2002 offset error 1.0 cm) and its band 13.7 ± 1.96·1.562 = 10.6–16.8 cmH₂O.
+const LOCAL_TERM: ObserverTerm = { source: 'local-pairs', sigmaCm: 1.2, n: 40, ci: [0.98, 1.55] }
+
+/** A version as kept by number for past estimates: the values, without the error term in force. */
+function kept({ observerTerm: _term, ...settings }: SettingsInForce) {
+  return settings
+}
 
 const offline = () => Promise.reject(new TypeError('Failed to fetch'))
 
@@ -60,20 +73,57 @@ describe('settings store', () => {
   it('with nothing received yet, the live estimate uses the cited defaults', () => {
     const estimate = liveEstimate(makeDraft(WORKED_EXAMPLE))
 
-    // McGee 1998: elevated above 3 cm; Cook 1990 categories: high above 10 cmH₂O.
-    expect(estimate).toMatchObject({ elevated: true, category: 'high' })
+    // McGee 1998: elevated above 3 cm; Cook 1990 categories: the band 9.2–18.2 reaches normal (5–10) and high (> 10).
+    expect(estimate).toMatchObject({ elevated: true, categories: ['normal', 'high'], observerSource: 'default' })
   })
 
   it('the live estimate and the device copy of a saved exam use the settings in force', async () => {
     vi.mocked(api.fetchSettings).mockResolvedValue(RAISED)
     await useSettingsStore().load()
-    const draft = makeDraft(WORKED_EXAMPLE)
+    const draft = makeDraft({ ...WORKED_EXAMPLE, offsetModel: 'incline-adjusted' })
 
     const live = liveEstimate(draft)
     const copy = localExamOf(parseDraft(draft)!, makeUser())
 
-    expect(live).toMatchObject({ elevated: false, category: 'normal' })
-    expect(copy.estimate).toMatchObject({ elevated: false, category: 'normal', settingsVersion: 2 })
+    expect(live).toMatchObject({ elevated: false, settingsVersion: 2 })
+    expect(copy.estimate).toMatchObject({ elevated: false, settingsVersion: 2 })
+  })
+
+  it('the live estimate and the device copy use the error term the server sent, so the band reviewed is the band stored', async () => {
+    vi.mocked(api.fetchSettings).mockResolvedValue(version(3, {}, LOCAL_TERM))
+    await useSettingsStore().load()
+    const draft = makeDraft(WORKED_EXAMPLE)
+
+    const live = liveEstimate(draft)!
+    const copy = localExamOf(parseDraft(draft)!, makeUser())
+
+    expect(live.observerSource).toBe('local-pairs')
+    expect(live.bandCmH2O![0]).toBeCloseTo(13.7 - 1.96 * Math.hypot(1.2, 1.0), 5)
+    expect(live.bandCmH2O![1]).toBeCloseTo(13.7 + 1.96 * Math.hypot(1.2, 1.0), 5)
+    expect(copy.estimate.bandCmH2O).toEqual(live.bandCmH2O)
+    expect(copy.estimate.observerN).toBe(40)
+  })
+
+  it('offline, keeps the error term with the settings on the device', async () => {
+    vi.mocked(api.fetchSettings).mockResolvedValue(version(3, {}, LOCAL_TERM))
+    await useSettingsStore().load()
+    useSettingsStore().forget()
+    vi.mocked(api.fetchSettings).mockImplementation(offline)
+
+    await useSettingsStore().load()
+
+    expect(useSettingsStore().current?.observerTerm).toEqual(LOCAL_TERM)
+    expect(liveEstimate(makeDraft(WORKED_EXAMPLE))?.observerSource).toBe('local-pairs')
+  })
+
+  it('a copy kept by the previous app version, without an error term, reads as the default term of its settings', async () => {
+    const { observerTerm: _term, ...older } = version(2, { estimate: { sigmaObserverCm: 2.5 } })
+    await db.meta.put({ key: 'settings', value: older })
+    vi.mocked(api.fetchSettings).mockImplementation(offline)
+
+    await useSettingsStore().load()
+
+    expect(useSettingsStore().current?.observerTerm).toEqual({ source: 'default', sigmaCm: 2.5, n: null, ci: null })
   })
 
   it('a new draft starts with the default offset model of the settings', async () => {
@@ -89,7 +139,7 @@ describe('settings store', () => {
 
   it('fetches an older version once to read a past estimate with its own thresholds, and keeps it on the device', async () => {
     vi.mocked(api.fetchSettings).mockResolvedValue(version(3))
-    vi.mocked(api.fetchSettingsVersion).mockResolvedValue(RAISED)
+    vi.mocked(api.fetchSettingsVersion).mockResolvedValue(kept(RAISED))
     await useSettingsStore().load()
 
     await Promise.all([ensureSettingsVersion(2), ensureSettingsVersion(2)])
@@ -98,12 +148,12 @@ describe('settings store', () => {
     expect(api.fetchSettingsVersion).toHaveBeenCalledTimes(1)
     expect(estimateSettingsFor(2)?.highAboveCmH2O).toBe(15)
     expect(estimateSettingsFor(3)?.highAboveCmH2O).toBe(10)
-    expect(await loadSettingsVersionCopy(2)).toEqual(RAISED)
+    expect(await loadSettingsVersionCopy(2)).toEqual(kept(RAISED))
   })
 
   it('offline, a version fetched before comes from the device', async () => {
     vi.mocked(api.fetchSettings).mockResolvedValue(version(3))
-    vi.mocked(api.fetchSettingsVersion).mockResolvedValue(RAISED)
+    vi.mocked(api.fetchSettingsVersion).mockResolvedValue(kept(RAISED))
     await useSettingsStore().load()
     await ensureSettingsVersion(2)
     useSettingsStore().forget()
@@ -123,7 +173,7 @@ describe('settings store', () => {
     vi.mocked(api.fetchSettings).mockResolvedValue(version(3))
     await useSettingsStore().load()
 
-    expect(await loadSettingsVersionCopy(2)).toEqual(RAISED)
+    expect(await loadSettingsVersionCopy(2)).toEqual(kept(RAISED))
     expect(await loadSettingsCopy()).toEqual(version(3))
   })
 
@@ -160,5 +210,23 @@ describe('settings store', () => {
     expect(outcome).toBe('stale')
     expect(api.saveSettings).toHaveBeenCalledWith({ ...DEFAULT_APP_SETTINGS, pairWindowMinutes: 90 }, 1)
     expect(store.current).toEqual(RAISED)
+  })
+
+  it('after an admin saves, a local error term stays and a default one follows the new default observer error', async () => {
+    const { observerTerm: _term, ...saved } = version(4, { estimate: { sigmaObserverCm: 3 } })
+    vi.mocked(api.saveSettings).mockResolvedValue({ kind: 'saved', settings: saved })
+    const store = useSettingsStore()
+    vi.mocked(api.fetchSettings).mockResolvedValue(version(3, {}, LOCAL_TERM))
+    await store.load()
+
+    await store.save(saved.values)
+    const local = store.current?.observerTerm
+    store.forget()
+    vi.mocked(api.fetchSettings).mockResolvedValue(version(3))
+    await store.load()
+    await store.save(saved.values)
+
+    expect(local).toEqual(LOCAL_TERM)
+    expect(store.current?.observerTerm).toEqual({ source: 'default', sigmaCm: 3, n: null, ci: null })
   })
 })

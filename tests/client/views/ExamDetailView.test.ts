@@ -8,12 +8,13 @@ import { routes } from '@/router/routes'
 import { useSessionStore } from '@/stores/session'
 import * as api from '@/api/exams'
 import * as supervision from '@/api/supervision'
-import type { Exam } from '#shared/schemas/exam'
+import { ExamSchema, type Exam } from '#shared/schemas/exam'
 import { makeExam } from '../components/exam/make-exam'
+import { httpError } from '../factories/http-error'
 import { makeSignature } from '../factories/signature'
 import { makeUser } from '../factories/user'
 
-vi.mock('@/api/exams', () => ({ fetchExams: vi.fn(), fetchExam: vi.fn(), submitExam: vi.fn() }))
+vi.mock('@/api/exams', () => ({ fetchExams: vi.fn(), fetchExam: vi.fn(), submitExam: vi.fn(), updateExam: vi.fn() }))
 vi.mock('@/api/supervision')
 
 async function mountDetail(exam: Exam, viewerId = exam.examinerId, roles = makeUser().roles) {
@@ -35,6 +36,7 @@ describe('ExamDetailView', () => {
   beforeEach(() => {
     setActivePinia(createPinia())
     vi.mocked(api.submitExam).mockReset()
+    vi.mocked(api.updateExam).mockReset()
   })
 
   afterEach(() => {
@@ -190,5 +192,100 @@ describe('ExamDetailView', () => {
     expect(events[1]!.text()).toContain('Exam changed')
     expect(events[1]!.text()).toContain('Dr Sam Whitcombe')
     expect(events[1]!.text()).toContain('heightCm: 3 → 4')
+  })
+
+  it('the copied note leaves the prompts out unless the clinician ticks "add prompts to the note"', async () => {
+    const writeText = stubClipboard(async () => {})
+    const wrapper = await mountDetail(makeExam({ waveform: { aWave: 'cannon', vWave: 'normal', yDescent: 'normal' } }))
+
+    await wrapper.find('[data-testid="exam-copy-note"]').trigger('click')
+    await flushPromises()
+    await wrapper.find('[data-testid="exam-note-prompts"] input').setValue(true)
+    await wrapper.find('[data-testid="exam-copy-note"]').trigger('click')
+    await flushPromises()
+
+    const [without, withPrompts] = vi.mocked(writeText).mock.calls.map(([note]) => note)
+    expect(wrapper.find('[data-testid="exam-prompts"]').text()).toContain('Cannon a waves')
+    expect(without).not.toContain('Cannon a waves')
+    expect(withPrompts).toContain('Cannon a waves')
+    expect(withPrompts).toContain('Prompts from Plumbline')
+  })
+
+  it('offers no prompt box when the estimate has no prompts', async () => {
+    const wrapper = await mountDetail(makeExam())
+
+    expect(wrapper.find('[data-testid="exam-note-prompts"]').exists()).toBe(false)
+  })
+
+  // Cook & Simel 1996 (JAMA 275:630–634): a palpable pulsation behaves like the carotid.
+  it('with a palpable pulsation recorded, submitting stops until the author confirms the column is venous', async () => {
+    const exam = makeExam({ venousSigns: { 'not-palpable': 'absent', 'double-peaked': 'present', 'falls-on-inspiration': 'present' } })
+    const confirmed = { ...exam, venousConfirmed: true, version: 2 }
+    vi.mocked(api.updateExam).mockResolvedValue(confirmed)
+    vi.mocked(api.submitExam).mockResolvedValue({ ...confirmed, status: 'submitted', version: 3 })
+    const wrapper = await mountDetail(exam)
+
+    await wrapper.find('[data-testid="exam-submit"]').trigger('click')
+    await flushPromises()
+    const stopped = wrapper.find('[data-testid="venous-confirm"]').text()
+    await wrapper.find('[data-testid="venous-confirm-checkbox"] input').setValue(true)
+    await wrapper.find('[data-testid="exam-submit"]').trigger('click')
+    await flushPromises()
+
+    expect(stopped).toContain('Confirm that the column is venous before submitting')
+    const { bandCmH2O, observerSource, settingsVersion } = exam.estimate
+    expect(api.updateExam).toHaveBeenCalledWith(exam.id, { baseVersion: 1, venousConfirmed: true, reviewed: { bandCmH2O, observerSource, ...(settingsVersion ? { settingsVersion } : {}) } })
+    expect(api.submitExam).toHaveBeenCalledOnce()
+    expect(wrapper.find('[data-testid="status-submitted"]').exists()).toBe(true)
+  })
+
+  it('when the server refuses the submission on venousConfirmed, shows its message on the confirmation field', async () => {
+    const message = 'The pulsation was palpable or persisted under light pressure: confirm that the column you measured is venous before submitting'
+    vi.mocked(api.submitExam).mockRejectedValue(httpError(400, 'venous-not-confirmed', message, { venousConfirmed: message }))
+    const wrapper = await mountDetail(makeExam())
+
+    await wrapper.find('[data-testid="exam-submit"]').trigger('click')
+    await flushPromises()
+
+    expect(wrapper.find('[data-testid="venous-confirm"]').text()).toContain(message)
+    expect(wrapper.find('[data-testid="exam-action-error"]').exists()).toBe(false)
+  })
+
+  it('when the error term changed between review and save, says so plainly with both bands and their sources', async () => {
+    const exam = makeExam()
+    const saved = { ...exam.estimate, bandCmH2O: [10.7, 16.7] as [number, number], observerSource: 'local-pairs' as const, settingsVersion: 2 }
+    const reviewed = { bandCmH2O: [9.2, 18.2] as [number, number], observerSource: 'default' as const, settingsVersion: 2 }
+
+    const wrapper = await mountDetail({ ...exam, estimate: { ...saved, reviewed } })
+
+    const note = wrapper.find('[data-testid="exam-reviewed-changed"]').text()
+    expect(note).toContain('The error term changed between review and save')
+    expect(wrapper.find('[data-testid="exam-reviewed-band"]').text()).toBe('9.2–18.2 cmH₂O')
+    expect(wrapper.find('[data-testid="exam-saved-band"]').text()).toBe('10.7–16.7 cmH₂O')
+    expect(note).toContain('the default error term')
+    expect(note).toContain('the local error term from paired exams')
+  })
+
+  it('says nothing of a changed band when the server stored the band that was reviewed', async () => {
+    const wrapper = await mountDetail(makeExam())
+
+    expect(wrapper.find('[data-testid="exam-reviewed-changed"]').exists()).toBe(false)
+    expect(wrapper.find('[data-testid="exam-earlier-rules"]').exists()).toBe(false)
+  })
+
+  it('shows an estimate saved under the earlier rules as saved, with its settings version, never recomputed', async () => {
+    const exam = makeExam()
+    const firstRules = {
+      ...{ cvpCmH2O: 13.7, cvpMmHg: 10.08, bandCmH2O: [10.7, 16.7], bandMmHg: [7.87, 12.28], offsetCm: 9.7, offsetModel: 'incline-adjusted' },
+      ...{ heightCm: 4, sigmaCm: 1.53, bound: 'point', elevated: true, category: 'high', confidence: 'indeterminate', observerSource: 'local' },
+      ...{ outsideStudiedRange: false, venousSignCount: 3, mayBeArterial: false, hints: [], caution: 'Estimate.', settingsVersion: 2 },
+    }
+
+    const wrapper = await mountDetail(ExamSchema.parse({ ...exam, estimate: firstRules }))
+
+    expect(wrapper.find('[data-testid="exam-earlier-rules"]').text()).toContain('Saved under the earlier rules (settings version 2)')
+    expect(wrapper.find('[data-testid="exam-estimate-band"]').text()).toContain('10.7–16.7 cmH₂O')
+    expect(wrapper.find('[data-testid="exam-category"]').text()).toContain('high')
+    expect(wrapper.find('[data-testid="exam-compare-toggle"]').exists()).toBe(false)
   })
 })

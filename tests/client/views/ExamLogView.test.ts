@@ -61,6 +61,21 @@ describe('ExamLogView', () => {
     expect(wrapper.find('[data-testid="export-csv"]').exists()).toBe(true)
   })
 
+  it('says "estimated" in its column headers, shows the categories the band reaches and carries the caution', async () => {
+    const arterial = makeExam({ patientCode: 'SM-0007', venousSigns: { 'not-palpable': 'absent', 'double-peaked': 'present' } })
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam({ patientCode: 'SM-0142' }), arterial]))
+
+    const { wrapper } = await mountLog()
+
+    const headers = wrapper.find('[data-testid="exam-table"] thead').text()
+    expect(headers).toContain('Est. CVP (cmH₂O)')
+    expect(headers).toContain('Est. category')
+    // The worked example's band 9.2–18.2 reaches normal (5–10) and high (> 10), Cook 1990's categories.
+    expect(wrapper.find('[data-testid="exam-table"] tbody tr').text()).toContain('normal or high')
+    expect(wrapper.find(`[data-testid="arterial-${arterial.id}"]`).text()).toBe('Arterial evidence')
+    expect(wrapper.find('[data-testid="exam-caution"]').text()).toContain('Estimate from physical examination')
+  })
+
   it('when a patient code is typed, asks the server for that code from the first page', async () => {
     vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
     const { wrapper } = await mountLog()

@@ -42,7 +42,7 @@ describe('SettingsView', { timeout: 30_000 }, () => {
   beforeEach(() => {
     setActivePinia(createPinia())
     useSettingsStore().forget()
-    vi.mocked(api.fetchSettings).mockReset().mockResolvedValue(version(1))
+    vi.mocked(api.fetchSettings).mockReset().mockResolvedValue({ ...version(1), observerTerm: { source: 'default', sigmaCm: 2, n: null, ci: null } })
     vi.mocked(api.fetchSettingsHistory).mockReset().mockResolvedValue([FIRST])
     vi.mocked(api.saveSettings).mockReset()
   })
@@ -83,6 +83,16 @@ describe('SettingsView', { timeout: 30_000 }, () => {
     expect(api.saveSettings).toHaveBeenCalledWith({ ...DEFAULT_APP_SETTINGS, pairWindowMinutes: 90 }, 1)
     await vi.waitFor(() => expect(wrapper.find('[data-testid="settings-notice"]').text()).toContain('Saved as version 2'), { timeout: 15_000 })
     expect(wrapper.find('[data-testid="settings-current"]').text()).toContain('version 2')
+  })
+
+  it('a decimal comma typed in a setting reads as a decimal point: "2,5" cm is 2.5, never 25', async () => {
+    const wrapper = await mountSettings()
+    await type(wrapper, 'estimate.sigmaObserverCm', '2,5')
+
+    await wrapper.find('[data-testid="settings-save"]').trigger('click')
+
+    await vi.waitFor(() => expect(document.querySelector('[data-testid="settings-confirm"]')).not.toBeNull(), { timeout: 15_000 })
+    expect(document.querySelector('[data-testid="settings-confirm"]')!.textContent).toContain('2 → 2.5 cm')
   })
 
   it('the confirmation lists the change and that saved exams keep their estimates', async () => {

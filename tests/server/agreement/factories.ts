@@ -1,10 +1,11 @@
+import { randomUUID } from 'node:crypto'
 import request from 'supertest'
 import { computeEstimate } from '#shared/domain/estimate'
 import { AgreementPairListSchema, AgreementSummarySchema, AgreementTrendSchema } from '#shared/schemas/agreement'
 import { ExamInputSchema, type ExamInputRaw } from '#shared/schemas/exam'
 import { derivePairs } from '../../../server/agreement/pair-derivation.ts'
 import { columnsOf } from '../../../server/exams/exam-record.ts'
-import { ExamModel } from '../../../server/models/index.ts'
+import { ExamModel, RoundExaminerModel, RoundModel, RoundPatientCodeModel } from '../../../server/models/index.ts'
 import { makeExamInput } from '../factories/exam.ts'
 
 type App = Parameters<typeof request>[0]
@@ -56,4 +57,33 @@ export async function pairsAs(app: App, auth: string, query: Record<string, stri
 export async function trendAs(app: App, auth: string, query: Record<string, string> = {}) {
   const res = await request(app).get('/api/agreement/trend').set('Authorization', auth).query(query)
   return { res, trend: res.status === 200 ? AgreementTrendSchema.parse(res.body) : undefined }
+}
+
+export interface StoredRound {
+  educatorId: string
+  teamId: string
+  examinerIds: string[]
+  /** One row per patient code, one height per examiner in order; null leaves that entry unrecorded. */
+  subjects: (number | null)[][]
+  /** Closing time, epoch ms; the entries are dated a day earlier. */
+  closedAt: number
+  status?: 'open' | 'closed'
+}
+
+/** A calibration round with its entries, straight into the tables (as the rounds and exams services would store them). */
+export async function storeRound(r: StoredRound): Promise<string> {
+  const id = randomUUID()
+  const status = r.status ?? 'closed'
+  await RoundModel.create({ id, name: `Round ${id.slice(0, 8)}`, createdBy: r.educatorId, status, closedAt: status === 'closed' ? new Date(r.closedAt) : null })
+  const codes = r.subjects.map((_, i) => `RC-${id.slice(0, 4)}-${i}`)
+  await RoundPatientCodeModel.bulkCreate(codes.map((patientCode, position) => ({ roundId: id, patientCode, position })))
+  await RoundExaminerModel.bulkCreate(r.examinerIds.map((examinerId, position) => ({ roundId: id, examinerId, position })))
+  for (const [i, row] of r.subjects.entries()) {
+    for (const [j, heightCm] of row.entries()) {
+      if (heightCm === null) continue
+      const at = r.closedAt - DAY + j * MINUTE
+      await storeExam({ examinerId: r.examinerIds[j]!, teamId: r.teamId, at, heightCm, patientCode: codes[i], findings: { roundId: id } })
+    }
+  }
+  return id
 }

@@ -88,7 +88,7 @@ describe('GET /api/agreement/pairs: which exams form a pair (PRODUCT.md §6)', (
   it('leaves out exams without a measured height: a column top above the neck (a lower bound) or not filled', async () => {
     const { resident, resident2, attending, educator, exam } = await ward()
     await exam(resident, 0, { findings: { columnTop: 'above-neck', heightCm: 8 } })
-    await exam(resident2, 10, { findings: { columnTop: 'not-filled', heightCm: null } })
+    await exam(resident2, 10, { findings: { columnTop: 'not-filled', heightCm: null, inclinationDeg: 0 } })
     await exam(attending, 20)
 
     const { list } = await pairsAs(app, educator.auth)

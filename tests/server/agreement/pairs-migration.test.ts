@@ -18,20 +18,21 @@ afterEach(async () => {
 })
 
 /**
- * Exams written before the pairs table existed: one resident–attending pair and an exam with no partner. The accounts
- * are made on the current schema, then the migrations are taken back to just before the pairs table.
+ * Exams stored before the pairs table existed: one resident–attending pair and an exam with no partner. They are
+ * written on the current schema, then the migrations are taken back to just before the pairs table, which leaves the
+ * rows in place without their pairs.
  */
 async function examsOfOldRelease(migrator: ReturnType<typeof createMigrator>) {
   await migrator.up()
   const team = await makeTeam()
   const resident = await makeCaller({ roles: ['resident'], teamIds: [team.id] })
   const attending = await makeCaller({ roles: ['attending'], teamIds: [team.id] })
-  await migrator.down({ to: MIGRATION })
   const at = Date.now() - 10 * DAY
   const exam = (examinerId: string, minutes: number, patientCode: string) =>
     ExamModel.create(examValues({ examinerId, teamId: team.id, at: at + minutes * MINUTE, patientCode }))
   const paired = [await exam(resident.user.id, 0, 'SM-0142'), await exam(attending.user.id, 40, 'SM-0142')]
   await exam(resident.user.id, 0, 'SM-0157')
+  await migrator.down({ to: MIGRATION })
   return paired.map((e) => e.id)
 }
 

@@ -27,7 +27,9 @@ async function pairsOf(heights: [resident: number, attending: number][]) {
 describe('GET /api/agreement/summary: the statistics (PRODUCT.md §6)', () => {
   it('matches a hand-computed set of five pairs', async () => {
     // Differences −1, −1, −2, 0, 0: bias −0.8, SD √0.7; t(0.975, 4) = 2.7764451 (Bland & Altman 1986 formulas).
-    // ICC(2,1) from the two-way ANOVA (Shrout & Fleiss 1979): MSR 26.85, MSC 1.6, MSE 0.35 → 26.5 / 27.7.
+    // ICC(1,1), one-way ANOVA (Shrout & Fleiss 1979, case 1: each patient has its own pair of examiners):
+    // MSR 26.85, MSW 0.6 → 26.25 / 27.45; F = 44.75 on (4, 5) df, F.975(4, 5) = 7.3879 and F.975(5, 4) = 9.3645
+    // (F table) → 95% CI [(F/7.3879 − 1)/(F/7.3879 + 1), (9.3645F − 1)/(9.3645F + 1)] = [0.7166, 0.9952].
     // Elevated (h > 3 cm, McGee 1998) table [[3, 1], [0, 1]] → κ 0.24 / 0.44. Categories at CVP = h + 8 (Cook 1990):
     // [[0, 1, 0], [0, 2, 0], [0, 0, 2]] → linear 1 − 0.1/0.34, quadratic 1 − 0.05/0.21.
     const { educator } = await pairsOf([[-4, -3], [1, 2], [3, 5], [6, 6], [0, 0]])
@@ -44,7 +46,7 @@ describe('GET /api/agreement/summary: the statistics (PRODUCT.md §6)', () => {
     expect(ba.biasCi[1]).toBeCloseTo(0.238851, 5)
     expect(ba.loaCi.lower[0]).toBeCloseTo(-4.239196, 5)
     expect(ba.loaCi.lower[1]).toBeCloseTo(-0.640512, 5)
-    expect(summary!.icc).toMatchObject({ value: expect.closeTo(26.5 / 27.7, 10) })
+    expect(summary!.icc).toEqual({ value: expect.closeTo(26.25 / 27.45, 10), ci: [expect.closeTo(0.7166, 3), expect.closeTo(0.9952, 3)] })
     expect(summary!.kappaElevated).toEqual({ value: expect.closeTo(0.24 / 0.44, 10), label: 'moderate' })
     expect(summary!.kappaCategory).toEqual({
       linear: expect.closeTo(1 - 0.1 / 0.34, 10),

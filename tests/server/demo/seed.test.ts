@@ -1,6 +1,7 @@
 import request from 'supertest'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { ExamListSchema } from '#shared/schemas/exam'
+import { ExamFindingsSchema, ExamListSchema } from '#shared/schemas/exam'
+import { storedInput } from '../../../server/exams/exam-columns.ts'
 import { DEMO_PASSWORD, seedDemo } from '../../../server/demo/seed.ts'
 import { AuditEventModel, ExamModel, MembershipModel, TeamModel, UserModel } from '../../../server/models/index.ts'
 import { makeTestApp } from '../helpers.ts'
@@ -23,13 +24,13 @@ async function signInAs(email: string) {
 }
 
 describe('demo seed', () => {
-  it('creates the three teams, the named accounts and a dozen exams once, and a second run changes nothing', async () => {
+  it('creates the three teams, the named accounts and fifteen exams once, and a second run changes nothing', async () => {
     const before = await counts()
 
     const second = await seedDemo()
 
     expect(first.created).toBeGreaterThanOrEqual(10)
-    expect(first.exams).toBe(12)
+    expect(first.exams).toBe(15)
     expect(second).toEqual({ created: 0, exams: 0 })
     expect(await counts()).toEqual(before)
     expect(before[0]).toBe(3)
@@ -54,6 +55,37 @@ describe('demo seed', () => {
     expect(exams.length).toBeGreaterThanOrEqual(8)
     expect(new Set(exams.map((e) => e.status))).toEqual(new Set(['draft', 'submitted']))
     expect(exams.every((e) => /^SM-\d{4}$/.test(e.patientCode) && e.examinerName === 'Dr Sam Whitcombe')).toBe(true)
-    expect(exams.every((e) => e.inclinationDeg >= 30 && e.inclinationDeg <= 60)).toBe(true)
+    expect(exams.every((e) => (e.inclinationDeg >= 30 && e.inclinationDeg <= 60) || e.columnTop === 'not-filled')).toBe(true)
+  })
+})
+
+describe('demo exams under the current rules', () => {
+  const allExams = async () => (await ExamModel.findAll()).map((row) => ({ row, findings: ExamFindingsSchema.safeParse(storedInput(row)) }))
+
+  it('are all valid findings: "not filled" only at 10° or flatter, along the neck only from 30°, a reason when not assessable', async () => {
+    const exams = await allExams()
+
+    const invalid = exams.filter((e) => !e.findings.success).map((e) => ({ id: e.row.id, issues: e.findings.error?.issues }))
+    expect(invalid).toEqual([])
+    const notFilled = exams.filter((e) => e.row.columnTop === 'not-filled')
+    expect(notFilled.length).toBeGreaterThan(0)
+    expect(notFilled.every((e) => e.row.inclinationDeg <= 10)).toBe(true)
+  })
+
+  it('record venous signs as states, never the older list', async () => {
+    const rows = await ExamModel.findAll()
+
+    expect(rows.every((row) => !Array.isArray(JSON.parse(row.venousSigns)))).toBe(true)
+  })
+
+  it('show context flags, a column not assessable with its reason, and arterial evidence confirmed venous and submitted', async () => {
+    const exams = (await allExams()).map((e) => e.findings.data!)
+    const rows = await ExamModel.findAll()
+
+    expect(exams.filter((f) => f.context.length > 0).length).toBeGreaterThanOrEqual(2)
+    expect(exams.some((f) => f.columnTop === 'not-assessable' && f.notAssessableReason)).toBe(true)
+    const arterial = rows.filter((row) => JSON.parse(row.estimate).arterialEvidence === true)
+    expect(arterial.length).toBeGreaterThan(0)
+    expect(arterial.every((row) => row.venousConfirmed && row.status === 'submitted')).toBe(true)
   })
 })

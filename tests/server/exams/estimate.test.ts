@@ -18,8 +18,15 @@ describe('POST /api/estimate', () => {
     const res = await request(app).post('/api/estimate').set('Authorization', auth).send(makeExamInput({ teamId: 'any' }))
 
     expect(res.status).toBe(200)
-    // PRODUCT.md §4 worked example: 13.7 cmH₂O = 10.08 mmHg, elevated, high, indeterminate.
-    expect(EstimateSchema.parse(res.body)).toMatchObject({ elevated: true, category: 'high', confidence: 'indeterminate', bound: 'point' })
+    // The worked example: 13.7 cmH₂O = 10.08 mmHg, band 9.2–18.2: elevated (h > 3 cm, McGee 1998), the band
+    // reaches "normal or high" (Cook 1990 categories), indeterminate.
+    expect(EstimateSchema.parse(res.body)).toMatchObject({
+      rulesVersion: 2,
+      elevated: true,
+      categories: ['normal', 'high'],
+      confidence: 'indeterminate',
+      bound: 'point',
+    })
     expect(res.body.cvpCmH2O).toBeCloseTo(13.7, 2)
     expect(res.body.cvpMmHg).toBeCloseTo(10.08, 2)
     expect(await ExamModel.count()).toBe(0)

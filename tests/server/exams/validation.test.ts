@@ -37,7 +37,16 @@ const INVALID: Invalid[] = [
   ['the exam time is not a date-time', 'examinedAt', () => ({ examinedAt: 'yesterday' })],
   ['the team is not one of the author’s', 'teamId', (otherTeamId) => ({ teamId: otherTeamId })],
   ['the notes are 2,001 characters', 'notes', () => ({ notes: 'x'.repeat(2001) })],
-  ['a venous sign is unknown', 'venousSigns.0', () => ({ venousSigns: ['bounding' as never] })],
+  ['a venous sign is unknown (older list form)', 'venousSigns', () => ({ venousSigns: ['bounding' as never] })],
+  ['a venous sign is unknown', 'venousSigns', () => ({ venousSigns: { bounding: 'present' } as never })],
+  ['a venous sign has no known state', 'venousSigns.not-palpable', () => ({ venousSigns: { 'not-palpable': 'maybe' as never } })],
+  // "Not filled" only lying (nearly) flat (≤ 10°, product default): at 30° the column may simply sit below the clavicle.
+  ['no column is recorded at 30°', 'columnTop', () => ({ columnTop: 'not-filled', heightCm: null, inclinationDeg: 30 })],
+  // Below 30°, h = d·sin θ turns a small angle error into a large height error (product default threshold).
+  ['a reading along the neck is at 20°', 'heightMethod', () => ({ heightMethod: 'along-neck', alongNeckCm: 6, heightCm: null, inclinationDeg: 20 })],
+  ['a column not assessable has no reason', 'notAssessableReason', () => ({ columnTop: 'not-assessable', heightCm: null })],
+  ['the reason "other" has no text', 'notAssessableText', () => ({ columnTop: 'not-assessable', heightCm: null, notAssessableReason: 'other' })],
+  ['a context flag is unknown', 'context.0', () => ({ context: ['pregnant' as never] })],
   ['the abdominojugular rise is negative', 'abdominojugular.riseCm', () => ({ abdominojugular: { done: true, riseCm: -1 } })],
 ]
 

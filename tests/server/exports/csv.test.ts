@@ -3,7 +3,9 @@ import request from 'supertest'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { CAUTION_TEXT } from '#shared/domain/interpretation'
 import { ExamSchema, type ExamInputRaw } from '#shared/schemas/exam'
-import { AuditEventModel } from '../../../server/models/index.ts'
+import { AuditEventModel, ExamModel } from '../../../server/models/index.ts'
+import { saveSettings } from '../settings/settings-calls.ts'
+import { FIRST_RULES_ESTIMATE } from '../factories/first-rules.ts'
 import { recordExam, recordSubmittedExam } from '../factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
 import { act, makeWard, SIGN } from '../supervision/ward.ts'
@@ -24,23 +26,39 @@ const DOCUMENTED_COLUMNS = [
   'inclination_deg',
   'vein',
   'column_top',
+  'not_assessable_reason',
   'height_method',
   'reading_precision',
+  'context',
+  'venous_confirmed',
   'height_cm',
   'offset_model',
   'offset_cm',
+  'convention_diff_cm',
   'bound',
-  'cvp_cmh2o',
-  'cvp_mmhg',
-  'band_low_cmh2o',
-  'band_high_cmh2o',
-  'band_low_mmhg',
-  'band_high_mmhg',
-  'sigma_cm',
+  'cvp_estimate_cmh2o',
+  'cvp_estimate_mmhg',
+  'estimate_band_low_cmh2o',
+  'estimate_band_high_cmh2o',
+  'estimate_band_low_mmhg',
+  'estimate_band_high_mmhg',
+  'estimate_sigma_cm',
   'observer_source',
+  'observer_sigma_cm',
+  'observer_n',
   'elevated',
-  'category',
+  'elevated_statement',
+  'estimated_categories',
+  'category_statement',
   'confidence',
+  'arterial_evidence',
+  'arterial_warning',
+  'frame_note',
+  'other_cautions',
+  'reviewed_band_low_cmh2o',
+  'reviewed_band_high_cmh2o',
+  'rules_version',
+  'settings_version',
   'countersigned_by',
   'countersigned_at',
   'countersign_meaning',
@@ -98,8 +116,19 @@ describe('GET /api/exports/exams.csv', () => {
       offset_model: 'incline-adjusted',
       offset_cm: '9.7',
       bound: 'point',
-      cvp_cmh2o: '13.7',
-      category: 'high',
+      cvp_estimate_cmh2o: '13.7',
+      // Cook 1990 categories: the band 9.2–18.2 reaches normal (5–10) and high (> 10); McGee 1998: h 4 > 3 cm.
+      estimated_categories: 'normal;high',
+      category_statement: 'normal or high',
+      confidence: 'indeterminate',
+      elevated: 'true',
+      elevated_statement: 'JVP elevated (more than 3 cm above the sternal angle)',
+      arterial_evidence: 'false',
+      arterial_warning: '',
+      frame_note: '',
+      observer_source: 'default',
+      rules_version: '2',
+      settings_version: '1',
       countersigned_by: 'Dr Tomas Lindqvist',
       countersigned_at: signature.signedAt,
       countersign_meaning: 'reviewed-agree',
@@ -107,10 +136,10 @@ describe('GET /api/exports/exams.csv', () => {
       caution: CAUTION_TEXT,
     })
     // NIST SP 811 (2008) App. B.8 → 1.35951 cmH₂O per mmHg (PRODUCT.md §4); dot decimals
-    expect(Number(rows[0]!.cvp_mmhg)).toBeCloseTo(13.7 / 1.35951, 2)
+    expect(Number(rows[0]!.cvp_estimate_mmhg)).toBeCloseTo(13.7 / 1.35951, 2)
     // PRODUCT.md §4 band with the default error terms: ±1.96·√(0.5² + 1.0² + 2.0²) = ±1.96·√5.25 around 13.7.
-    expect(Number(rows[0]!.band_low_cmh2o)).toBeCloseTo(13.7 - 1.96 * Math.sqrt(5.25), 2)
-    expect(Number(rows[0]!.band_high_cmh2o)).toBeCloseTo(13.7 + 1.96 * Math.sqrt(5.25), 2)
+    expect(Number(rows[0]!.estimate_band_low_cmh2o)).toBeCloseTo(13.7 - 1.96 * Math.sqrt(5.25), 2)
+    expect(Number(rows[0]!.estimate_band_high_cmh2o)).toBeCloseTo(13.7 + 1.96 * Math.sqrt(5.25), 2)
     expect(rows[0]!.countersignature).toMatch(/^Countersigned by Dr Tomas Lindqvist, .+; meaning: reviewed, and agrees with the findings; version \d+\.$/)
     expect(rows[0]!.countersignature).toContain(`version ${exam.version}.`)
   })
@@ -231,3 +260,115 @@ describe('GET /api/exports/exams.csv', () => {
     expect(events.every((e) => e.entityType === 'export')).toBe(true)
   })
 })
+
+describe('GET /api/exports/exams.csv: the estimate in words beside its numbers', () => {
+  it('names the header as estimated and carries the caution on every row', async () => {
+    const ward = await newWard()
+    await submitted(ward.resident.auth, ward.team.id)
+
+    const { fields, rows } = parse((await csvOf(ward.resident.auth)).text)
+
+    expect(fields.filter((f) => f.startsWith('cvp_'))).toEqual(['cvp_estimate_cmh2o', 'cvp_estimate_mmhg'])
+    expect(fields.filter((f) => f.includes('band') && !f.startsWith('reviewed_')).every((f) => f.startsWith('estimate_'))).toBe(true)
+    expect(rows.every((r) => r.caution === CAUTION_TEXT)).toBe(true)
+  })
+
+  it('2 cm at 45°: not elevated, "normal or high", and the frame note explaining the 3 cm rule', async () => {
+    const ward = await newWard()
+    await submitted(ward.resident.auth, ward.team.id, { heightCm: 2 })
+
+    const [row] = parse((await csvOf(ward.resident.auth)).text).rows
+
+    // h 2 cm ≤ 3 cm: not elevated (McGee 1998); CVP 2 + 9.7 (Seth 2002, 45°) = 11.7, band 7.2–16.2: normal or high.
+    expect(row).toMatchObject({
+      cvp_estimate_cmh2o: '11.7',
+      elevated: 'false',
+      elevated_statement: 'JVP not elevated (not more than 3 cm above the sternal angle)',
+      category_statement: 'normal or high',
+    })
+    expect(row!.frame_note).toContain('the 3 cm rule assumes the classical 5 cm offset')
+    expect(row!.frame_note).toContain('9.7 cm')
+  })
+
+  it('a palpable pulsation confirmed venous: arterial evidence and its warning', async () => {
+    const ward = await newWard()
+    const venousSigns = { 'not-palpable': 'absent', 'double-peaked': 'present', 'falls-on-inspiration': 'present' } as const
+    await submitted(ward.resident.auth, ward.team.id, { venousSigns, venousConfirmed: true })
+
+    const [row] = parse((await csvOf(ward.resident.auth)).text).rows
+
+    // Cook & Simel 1996 (JAMA 275:630–634): a palpable pulsation is the carotid's sign.
+    expect(row).toMatchObject({ arterial_evidence: 'true', venous_confirmed: 'true' })
+    expect(row!.arterial_warning).toMatch(/^Arterial evidence: the pulsation was palpable/)
+    expect(row!.arterial_warning).toContain('The examiner confirmed the column is venous.')
+  })
+
+  it('lists the context flags, the reason a column was not assessable and the other cautions, never the prompts', async () => {
+    const ward = await newWard()
+    const first = await recordExam(app, ward.resident.auth, {
+      teamId: ward.team.id,
+      columnTop: 'not-assessable',
+      heightCm: null,
+      notAssessableReason: 'lines-or-dressings',
+      context: ['positive-pressure-ventilation', 'tense-ascites'],
+    })
+    const second = await recordExam(app, ward.resident.auth, {
+      teamId: ward.team.id,
+      vein: 'left-internal',
+      waveform: { aWave: 'normal', vWave: 'large', yDescent: 'normal' },
+    })
+
+    const res = await csvOf(ward.resident.auth)
+
+    const { rows } = parse(res.text)
+    const [notAssessable, leftVein] = [first, second].map((exam) => rows.find((r) => r.exam_id === exam.id))
+    expect(notAssessable).toMatchObject({
+      column_top: 'not-assessable',
+      not_assessable_reason: 'lines-or-dressings',
+      context: 'positive-pressure-ventilation;tense-ascites',
+      bound: 'none',
+      cvp_estimate_cmh2o: '',
+      elevated_statement: '',
+      category_statement: '',
+    })
+    expect(notAssessable!.other_cautions!.split(' | ')).toHaveLength(2)
+    expect(leftVein!.other_cautions).toMatch(/left/i)
+    expect(res.text).not.toContain('Prompt from Plumbline')
+    expect(res.text).not.toMatch(/tricuspid regurgitation/i)
+  })
+
+  it('states "elevated" with the threshold of the settings version the estimate was saved with', async () => {
+    const ward = await newWard()
+    const admin = await makeCaller({ roles: ['admin'] })
+    const before = await submitted(ward.resident.auth, ward.team.id, { heightCm: 4 })
+    await saveSettings(app, admin.auth, { estimate: { elevatedAboveCm: 5 } })
+    const after = await submitted(ward.resident.auth, ward.team.id, { heightCm: 4 })
+
+    const rows = parse((await csvOf(ward.resident.auth)).text).rows
+
+    const statementOf = (id: string) => rows.find((r) => r.exam_id === id)!.elevated_statement
+    expect(statementOf(before.id)).toBe('JVP elevated (more than 3 cm above the sternal angle)')
+    expect(statementOf(after.id)).toBe('JVP not elevated (not more than 5 cm above the sternal angle)')
+  })
+
+  it('exports an estimate saved under the first rules as it was saved, marked rules version 1', async () => {
+    const ward = await newWard()
+    const exam = await recordExam(app, ward.resident.auth, { teamId: ward.team.id })
+    await ExamModel.update({ estimate: JSON.stringify(FIRST_RULES_ESTIMATE) }, { where: { id: exam.id } })
+
+    const [row] = parse((await csvOf(ward.resident.auth)).text).rows
+
+    expect(row).toMatchObject({
+      rules_version: '1',
+      settings_version: '1',
+      cvp_estimate_cmh2o: '13.7',
+      estimate_band_low_cmh2o: '10.68',
+      estimate_band_high_cmh2o: '16.72',
+      estimated_categories: 'high',
+      category_statement: 'high',
+      observer_source: 'local-pairs',
+      elevated_statement: 'JVP elevated (more than 3 cm above the sternal angle)',
+    })
+  })
+})
+

@@ -3,11 +3,12 @@ import request from 'supertest'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { CAUTION_TEXT } from '#shared/domain/interpretation'
 import { ExamSchema, type Exam, type ExamInputRaw } from '#shared/schemas/exam'
-import { AuditEventModel } from '../../../server/models/index.ts'
+import { AuditEventModel, ExamModel } from '../../../server/models/index.ts'
 import { recordExam, recordSubmittedExam } from '../factories/exam.ts'
 import { makeCaller, makeTestApp } from '../helpers.ts'
 import { act, makeWard, SIGN } from '../supervision/ward.ts'
 import { validateR4 } from './fhir-r4.ts'
+import { FIRST_RULES_ESTIMATE } from '../factories/first-rules.ts'
 
 type App = Awaited<ReturnType<typeof makeTestApp>>['app']
 type Ward = Awaited<ReturnType<typeof makeWard>>
@@ -283,14 +284,95 @@ describe('GET /api/exams/:id/fhir — bounds (§4.5)', () => {
 
   it('a column that could not be assessed sends no value, only the reason', async () => {
     const ward = await newWard()
-    const exam = await recordExam(app, ward.resident.auth, { teamId: ward.team.id, columnTop: 'not-assessable', heightCm: null })
+    const exam = await recordExam(app, ward.resident.auth, {
+      teamId: ward.team.id,
+      columnTop: 'not-assessable',
+      heightCm: null,
+      notAssessableReason: 'other',
+      notAssessableText: 'SM-0142 declined the exam',
+    })
 
     const bundle = JSON.parse((await fhirOf(ward.resident.auth, exam)).text)
 
     const observation = observationOf(bundle)
     expect(observation.valueQuantity).toBeUndefined()
     expect(observation.dataAbsentReason.coding[0]).toMatchObject({ code: 'unknown' })
-    expect(observation.note.map((n: Json) => n.text)).toContain(CAUTION_TEXT)
+    const texts: string[] = observation.note.map((n: Json) => n.text)
+    expect(texts).toContain(CAUTION_TEXT)
+    expect(texts).toContain('The top of the venous column could not be assessed: there is no estimate. Reason: other reason.')
+    // free text stays out of exports, as the notes do
+    expect(JSON.stringify(bundle)).not.toContain('declined')
+    expect(validateR4(bundle).errors).toEqual([])
+  })
+})
+
+describe('GET /api/exams/:id/fhir — the note: statements and cautions, never prompts', () => {
+  const notesOf = async (auth: string, exam: Pick<Exam, 'id'>): Promise<string[]> =>
+    observationOf(JSON.parse((await fhirOf(auth, exam)).text)).note.map((n: Json) => n.text)
+
+  it('carries the caution, then the arterial warning, then the elevated and category statements', async () => {
+    const ward = await newWard()
+    const venousSigns = { 'not-palpable': 'absent', 'double-peaked': 'present', 'falls-on-inspiration': 'present' } as const
+    const exam = await recordExam(app, ward.resident.auth, { teamId: ward.team.id, venousSigns, venousConfirmed: true })
+
+    const texts = await notesOf(ward.resident.auth, exam)
+
+    // Worked example, h 4 cm at 45°: elevated (McGee 1998, h > 3 cm); band 9.2–18.2 reaches normal and high (Cook 1990).
+    expect(texts[0]).toBe(CAUTION_TEXT)
+    expect(texts[1]).toMatch(/^Arterial evidence: the pulsation was palpable/)
+    expect(texts[2]).toBe('JVP elevated (more than 3 cm above the sternal angle)')
+    expect(texts[3]).toBe('Estimated CVP category: normal or high (the categories the 95% band reaches).')
+  })
+
+  it('2 cm at 45° carries the frame note beside "not elevated"', async () => {
+    const ward = await newWard()
+    const exam = await recordExam(app, ward.resident.auth, { teamId: ward.team.id, heightCm: 2 })
+
+    const texts = await notesOf(ward.resident.auth, exam)
+
+    expect(texts).toContain('JVP not elevated (not more than 3 cm above the sternal angle)')
+    expect(texts.some((t) => t.includes('the 3 cm rule assumes the classical 5 cm offset'))).toBe(true)
+  })
+
+  it('leaves the prompts out: they are not findings', async () => {
+    const ward = await newWard()
+    const waveform = { aWave: 'cannon', vWave: 'large', yDescent: 'steep' } as const
+    const exam = await recordExam(app, ward.resident.auth, { teamId: ward.team.id, waveform })
+    expect(exam.estimate.prompts.length).toBeGreaterThan(0)
+
+    const res = await fhirOf(ward.resident.auth, exam)
+
+    expect(res.text).not.toContain('Prompt from Plumbline')
+    for (const prompt of exam.estimate.prompts) expect(res.text).not.toContain(prompt.finding)
+  })
+
+  it('says plainly when the band saved differs from the band reviewed, with both', async () => {
+    const ward = await newWard()
+    const reviewed = { bandCmH2O: [10.7, 16.7] as [number, number], observerSource: 'local-pairs' as const }
+    const exam = await recordExam(app, ward.resident.auth, { teamId: ward.team.id, reviewed })
+
+    const texts = await notesOf(ward.resident.auth, exam)
+
+    expect(texts).toContain(
+      'The band shown when the exam was reviewed was 10.7–16.7 cmH2O (local error term from routine pairs); ' +
+        'the band saved is 9.2–18.2 cmH2O (default error terms): the error term changed between review and saving.',
+    )
+  })
+
+  it('exports an estimate saved under the first rules as it was saved', async () => {
+    const ward = await newWard()
+    const exam = await recordExam(app, ward.resident.auth, { teamId: ward.team.id })
+    await ExamModel.update({ estimate: JSON.stringify(FIRST_RULES_ESTIMATE) }, { where: { id: exam.id } })
+
+    const bundle = JSON.parse((await fhirOf(ward.resident.auth, exam)).text)
+
+    const observation = observationOf(bundle)
+    expect(observation.valueQuantity.value).toBe(13.7)
+    expect(componentOf(observation, 'cvp-band-low').valueQuantity.value).toBe(10.68)
+    expect(componentOf(observation, 'cvp-band-high').valueQuantity.value).toBe(16.72)
+    const texts: string[] = observation.note.map((n: Json) => n.text)
+    expect(texts).toContain('Estimated CVP category: high (the categories the 95% band reaches).')
+    expect(texts.join('\n')).not.toContain('tricuspid regurgitation')
     expect(validateR4(bundle).errors).toEqual([])
   })
 })

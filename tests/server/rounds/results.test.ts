@@ -76,6 +76,7 @@ describe('results of a closed round (GET /api/rounds/:id/results)', () => {
     await recordDraftEntry(app, examiners[0]!, ward.id, round.id, subjects[2]!, 2)
     await recordEntry(app, examiners[2]!, ward.id, round.id, subjects[1]!, 0, {
       columnTop: 'not-assessable',
+      notAssessableReason: 'habitus',
       heightCm: null,
       examinedAt: new Date(Date.now() - 30 * 60_000).toISOString(),
     })

@@ -42,7 +42,7 @@ describe('the pairing window setting (PRODUCT.md §6)', () => {
     const { team, resident, attending, admin } = await ward()
     for (let i = 0; i < 30; i++) {
       const at = Date.now() - (i + 1) * DAY
-      await storeExam({ teamId: team.id, patientCode: `SM-8${i}`, examinerId: resident.user.id, at, heightCm: i % 2 ? 3 : 5 })
+      await storeExam({ teamId: team.id, patientCode: `SM-8${i}`, examinerId: resident.user.id, at, heightCm: i % 2 ? 2 : 6 })
       await storeExam({ teamId: team.id, patientCode: `SM-8${i}`, examinerId: attending.user.id, at: at + 150 * MINUTE, heightCm: 4 })
     }
     const before = await observerTerm()
@@ -51,7 +51,7 @@ describe('the pairing window setting (PRODUCT.md §6)', () => {
     const after = await observerTerm()
 
     expect(before.source).toBe('default')
-    // §4.4: differences alternate ±1 cm over 30 pairs, SD = √(30/29), σ_observer = SD/√2.
-    expect(after).toEqual({ source: 'local', sigmaCm: expect.closeTo(Math.sqrt(30 / 29) / Math.SQRT2, 9) })
+    // Differences alternate ±2 cm over 30 pairs: SD = √(120/29), σ_exam = SD/√2, each difference holding two examiners’ errors.
+    expect(after).toMatchObject({ source: 'local-pairs', n: 30, sigmaCm: expect.closeTo(Math.sqrt(120 / 29) / Math.SQRT2, 9) })
   })
 })

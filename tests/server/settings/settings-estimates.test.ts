@@ -22,9 +22,12 @@ async function ward() {
 const readExam = async (auth: string, id: string) => ExamSchema.parse((await request(app).get(`/api/exams/${id}`).set('Authorization', auth)).body)
 
 // Throughout: PRODUCT.md §4 worked example, h = 4 cm at 45°, ruler, incline-adjusted → 13.7 cmH₂O, band 9.2–18.2,
-// elevated (McGee 1998: h > 3 cm) and high (Cook 1990 categories: > 10 cmH₂O) under the defaults.
-// Raising the thresholds to elevated > 5 cm and high > 15 cmH₂O makes the same findings not elevated, normal.
-const RAISED = { estimate: { elevatedAboveCm: 5, highAboveCmH2O: 15 } }
+// elevated (McGee 1998: h > 3 cm) and a band reaching normal and high (Cook 1990 categories: > 10 cmH₂O) under the
+// defaults. Raising the thresholds to elevated > 5 cm and high > 20 cmH₂O makes the same findings not elevated, and
+// their band lies wholly in normal.
+const RAISED = { estimate: { elevatedAboveCm: 5, highAboveCmH2O: 20 } }
+const DEFAULT_JUDGEMENT = { elevated: true, categories: ['normal', 'high'], confidence: 'indeterminate' }
+const RAISED_JUDGEMENT = { elevated: false, categories: ['normal'], confidence: 'clear' }
 
 describe('settings and the estimates of exams (new estimates only)', () => {
   it('a new exam is judged by the new thresholds and records their version', async () => {
@@ -33,7 +36,7 @@ describe('settings and the estimates of exams (new estimates only)', () => {
 
     const exam = await recordExam(app, resident.auth, { teamId: team.id })
 
-    expect(exam.estimate).toMatchObject({ elevated: false, category: 'normal', settingsVersion: 2 })
+    expect(exam.estimate).toMatchObject({ ...RAISED_JUDGEMENT, settingsVersion: 2 })
     // PRODUCT.md §4 worked example (h 4 cm at 45°, Seth 2002 incline-adjusted offset): 13.7 cmH₂O, whatever the thresholds.
     expect(exam.estimate.cvpCmH2O).toBeCloseTo(13.7, 9)
   })
@@ -46,7 +49,7 @@ describe('settings and the estimates of exams (new estimates only)', () => {
 
     const read = await readExam(resident.auth, old.id)
     expect(read.estimate).toEqual(old.estimate)
-    expect(read.estimate).toMatchObject({ elevated: true, category: 'high', settingsVersion: 1 })
+    expect(read.estimate).toMatchObject({ ...DEFAULT_JUDGEMENT, settingsVersion: 1 })
     const list = await request(app).get('/api/exams').set('Authorization', resident.auth)
     expect(list.body.exams[0].estimate).toEqual(old.estimate)
   })
@@ -72,8 +75,8 @@ describe('settings and the estimates of exams (new estimates only)', () => {
     const res = await request(app).patch(`/api/exams/${draft.id}`).set('Authorization', resident.auth).send({ baseVersion: 1, heightCm: 4.5 })
 
     expect(res.status).toBe(200)
-    // 4.5 + 9.7 = 14.2 cmH₂O: normal under high > 15, and h = 4.5 is not above 5 cm.
-    expect(res.body.estimate).toMatchObject({ elevated: false, category: 'normal', settingsVersion: 2 })
+    // 4.5 + 9.7 = 14.2 cmH₂O, band 9.7–18.7: wholly normal under high > 20, and h = 4.5 is not above 5 cm.
+    expect(res.body.estimate).toMatchObject({ ...RAISED_JUDGEMENT, settingsVersion: 2 })
   })
 
   it('POST /api/estimate answers with the thresholds and error terms in force', async () => {
@@ -84,8 +87,8 @@ describe('settings and the estimates of exams (new estimates only)', () => {
     await saveSettings(app, admin.auth, { ...RAISED, estimate: { ...RAISED.estimate, sigmaObserverCm: 1 } })
     const after = await request(app).post('/api/estimate').set('Authorization', resident.auth).send(findings)
 
-    expect(before.body).toMatchObject({ elevated: true, category: 'high', settingsVersion: 1 })
-    expect(after.body).toMatchObject({ elevated: false, category: 'normal', settingsVersion: 2, observerSource: 'default' })
+    expect(before.body).toMatchObject({ ...DEFAULT_JUDGEMENT, settingsVersion: 1 })
+    expect(after.body).toMatchObject({ ...RAISED_JUDGEMENT, settingsVersion: 2, observerSource: 'default', observerSigmaCm: 1 })
     // σ = √(σ_read² + σ_offset² + σ_observer²) (§4.4) with the observer term now 1 cm: √(0.25 + 1 + 1) = 1.5.
     expect(before.body.sigmaCm).toBeCloseTo(Math.hypot(0.5, 1, 2), 9)
     expect(after.body.sigmaCm).toBeCloseTo(1.5, 9)
@@ -99,6 +102,6 @@ describe('settings and the estimates of exams (new estimates only)', () => {
     const res = await push(app, resident.auth, [change])
 
     expect(res.body.results[0].result).toBe('applied')
-    expect((await readExam(resident.auth, change.exam.id)).estimate).toMatchObject({ elevated: false, category: 'normal', settingsVersion: 2 })
+    expect((await readExam(resident.auth, change.exam.id)).estimate).toMatchObject({ ...RAISED_JUDGEMENT, settingsVersion: 2 })
   })
 })

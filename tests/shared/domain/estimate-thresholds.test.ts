@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { computeEstimate } from '#shared/domain/estimate'
 import { EstimateSettingsSchema } from '#shared/schemas/settings'
-import { makeFindings } from '../factories.ts'
+import { makeFindings, makeLocalTerm } from '../factories.ts'
 
 describe('computeEstimate, elevated JVP', () => {
   // McGee 1998 (Am Heart J 136:10–18): elevated when the top is more than 3 cm above the sternal angle.
@@ -22,6 +22,7 @@ describe('computeEstimate, elevated JVP', () => {
 
     const estimate = computeEstimate(findings)
 
+    // sin 30° = ½ exactly, though Math.sin gives 0.49999999999999994
     expect(estimate.heightCm).toBe(3)
     expect(estimate.elevated).toBe(false)
   })
@@ -35,68 +36,52 @@ describe('computeEstimate, elevated JVP', () => {
   })
 })
 
-describe('computeEstimate, CVP category', () => {
-  // Cook 1990 categories (from memory: Am J Med Sci 299:175–178): low < 5, normal 5–10, high > 10 cmH₂O.
+describe('computeEstimate, CVP categories the 95% band reaches', () => {
+  // Categories of Cook 1990 (Am J Med Sci, PMID 2316561): low < 5, normal 5–10, high > 10 cmH₂O.
   it.each([
-    [-0.01, 4.99, 'low'],
-    [0, 5, 'normal'],
-    [5, 10, 'normal'],
-    [5.01, 10.01, 'high'],
-  ])('with a fixed 5 cm offset and h = %s cm, calls CVP %s cmH₂O %s', (heightCm, cvp, category) => {
-    const findings = makeFindings({ offsetModel: 'fixed-5cm', heightCm })
+    // 0° (5.4 cm) − 5 cm = 0.4, band −4.1 to 4.9; 45° (9.7 cm) + 5.3 cm = 15, band 10.5 to 19.5
+    [0, -5, ['low']],
+    [45, 5.3, ['high']],
+    // 45°: 9.7 − 4 = 5.7, band 1.2 to 10.2
+    [45, -4, ['low', 'normal', 'high']],
+    // 30°: 8.0 + 0 = 8, band 3.5 to 12.5
+    [30, 0, ['low', 'normal', 'high']],
+    // 60°: 9.8 − 6 = 3.8, band −0.7 to 8.3
+    [60, -6, ['low', 'normal']],
+  ])('at %s° with h = %s cm, reaches %j', (inclinationDeg, heightCm, categories) => {
+    const estimate = computeEstimate(makeFindings({ inclinationDeg, heightCm }))
 
-    const estimate = computeEstimate(findings)
+    expect(estimate.categories).toEqual(categories)
+    expect(estimate.confidence).toBe(categories.length === 1 ? 'clear' : 'indeterminate')
+  })
 
-    expect(estimate.cvpCmH2O).toBe(cvp)
-    expect(estimate.category).toBe(category)
+  it('with a narrow local term, a band wholly inside normal is clear', () => {
+    const observer = makeLocalTerm({ sigmaCm: 0.5 })
+
+    const estimate = computeEstimate(makeFindings({ inclinationDeg: 30, heightCm: -0.5 }), { observer })
+
+    // 7.5 ± 1.96 × √(0.25 + 1) = 5.3 to 9.7
+    expect(estimate.categories).toEqual(['normal'])
+    expect(estimate.confidence).toBe('clear')
+  })
+
+  it('takes the thresholds from the settings', () => {
+    const settings = EstimateSettingsSchema.parse({ lowBelowCmH2O: 2, highAboveCmH2O: 20 })
+
+    const estimate = computeEstimate(makeFindings(), { settings })
+
+    // The worked example's band 9.2–18.2 lies inside 2–20
+    expect(estimate.categories).toEqual(['normal'])
   })
 
   it.each([
     [45, -4.7, 5],
     [60, 0.2, 10],
     [60, -4.8, 5],
-  ])('at %s° with h = %s cm, lands on %s cmH₂O exactly and calls it normal', (inclinationDeg, heightCm, cvp) => {
-    const findings = makeFindings({ inclinationDeg, heightCm })
+  ])('at %s° with h = %s cm, lands on %s cmH₂O exactly, with no float noise to tip a threshold', (inclinationDeg, heightCm, cvp) => {
+    const estimate = computeEstimate(makeFindings({ inclinationDeg, heightCm }))
 
-    const estimate = computeEstimate(findings)
-
-    // Seth 2002 medians 9.7 cm at 45°, 9.8 cm at 60°: the sums are exact in decimal, so no float noise may tip them
+    // Seth 2002 medians 9.7 cm at 45°, 9.8 cm at 60°: the sums are exact in decimal
     expect(estimate.cvpCmH2O).toBe(cvp)
-    expect(estimate.category).toBe('normal')
-  })
-
-  it('when the settings move the high threshold to 12, calls 11 cmH₂O normal', () => {
-    const settings = EstimateSettingsSchema.parse({ highAboveCmH2O: 12 })
-
-    const estimate = computeEstimate(makeFindings({ offsetModel: 'fixed-5cm', heightCm: 6 }), { settings })
-
-    expect(estimate.category).toBe('normal')
-  })
-})
-
-describe('computeEstimate, confidence', () => {
-  const narrowObserver = { sigmaCm: 0.5, source: 'local' as const }
-
-  it.each([
-    // 0° (5.4 cm) − 5 cm = 0.4; 30° (8.0 cm) − 0.5 cm = 7.5; 45° (9.7 cm) + 5.3 cm = 15
-    [0, -5, 'low', undefined],
-    [30, -0.5, 'normal', narrowObserver],
-    [45, 5.3, 'high', undefined],
-  ])('at %s° with h = %s cm, the band lies wholly inside %s: clear', (inclinationDeg, heightCm, category, observer) => {
-    const findings = makeFindings({ inclinationDeg, heightCm })
-
-    const estimate = computeEstimate(findings, { observer })
-
-    expect(estimate.category).toBe(category)
-    expect(estimate.confidence).toBe('clear')
-  })
-
-  it('when the band crosses a threshold, is indeterminate', () => {
-    const findings = makeFindings({ inclinationDeg: 30, heightCm: -0.5 })
-
-    const estimate = computeEstimate(findings)
-
-    expect(estimate.bandCmH2O![0]).toBeLessThan(5)
-    expect(estimate.confidence).toBe('indeterminate')
   })
 })

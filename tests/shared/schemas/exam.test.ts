@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import type { z } from 'zod'
-import { ExamFindingsSchema, ExamInputSchema, ExamPatchSchema } from '#shared/schemas/exam'
+import { ExamFindingsSchema, ExamInputSchema, ExamPatchSchema, NO_VENOUS_SIGNS, StoredEstimateSchema } from '#shared/schemas/exam'
 import { makeExamBody } from '../factories.ts'
 
 function messagesByField(result: z.ZodSafeParseResult<unknown>): Record<string, string[]> {
@@ -13,7 +13,8 @@ describe('ExamInputSchema', () => {
   it('accepts a complete body and fills the defaults of a new exam', () => {
     const input = ExamInputSchema.parse(makeExamBody())
 
-    expect(input).toMatchObject({ notes: '', heightMethod: 'vertical', readingPrecision: 'ruler', offsetModel: 'incline-adjusted', venousSigns: [] })
+    expect(input).toMatchObject({ notes: '', heightMethod: 'vertical', readingPrecision: 'ruler', offsetModel: 'incline-adjusted' })
+    expect(input).toMatchObject({ venousSigns: NO_VENOUS_SIGNS, venousConfirmed: false, context: [] })
   })
 
   it('when the patient code has a space, names the field and allows letters, digits and “-” only', () => {
@@ -55,8 +56,8 @@ describe('ExamInputSchema', () => {
     expect(messagesByField(result)).toEqual({ alongNeckCm: ['Enter the distance measured along the neck'] })
   })
 
-  it('when the column is not filled, needs no height', () => {
-    const result = ExamInputSchema.safeParse(makeExamBody({ columnTop: 'not-filled', heightCm: null }))
+  it('when the column is not filled, lying flat, needs no height', () => {
+    const result = ExamInputSchema.safeParse(makeExamBody({ columnTop: 'not-filled', heightCm: null, inclinationDeg: 0 }))
 
     expect(result.success).toBe(true)
   })
@@ -80,10 +81,71 @@ describe('ExamInputSchema', () => {
 })
 
 describe('ExamFindingsSchema', () => {
-  it('keeps each venous sign once', () => {
+  it('reads the older list of venous signs as those signs present and the rest not tested', () => {
     const findings = ExamFindingsSchema.parse({ ...makeExamBody(), venousSigns: ['not-palpable', 'not-palpable'] })
 
-    expect(findings.venousSigns).toEqual(['not-palpable'])
+    expect(findings.venousSigns).toEqual({ ...NO_VENOUS_SIGNS, 'not-palpable': 'present' })
+  })
+
+  it('takes the venous signs keyed by sign, an omitted sign not tested', () => {
+    const findings = ExamFindingsSchema.parse({ ...makeExamBody(), venousSigns: { 'not-palpable': 'absent' } })
+
+    expect(findings.venousSigns).toEqual({ ...NO_VENOUS_SIGNS, 'not-palpable': 'absent' })
+  })
+
+  it('keeps each context flag once', () => {
+    const findings = ExamFindingsSchema.parse({ ...makeExamBody(), context: ['tense-ascites', 'tense-ascites'] })
+
+    expect(findings.context).toEqual(['tense-ascites'])
+  })
+
+  it('accepts "no column even lying flat" at 10° and refuses it at 11°, on the column top', () => {
+    const flat = ExamFindingsSchema.safeParse(makeExamBody({ columnTop: 'not-filled', heightCm: null, inclinationDeg: 10 }))
+
+    const raised = ExamFindingsSchema.safeParse(makeExamBody({ columnTop: 'not-filled', heightCm: null, inclinationDeg: 11 }))
+
+    expect(flat.success).toBe(true)
+    expect(Object.keys(messagesByField(raised))).toEqual(['columnTop'])
+  })
+
+  it('refuses a reading along the neck below 30°, on the height method, and accepts it at 30°', () => {
+    const along = { heightMethod: 'along-neck', alongNeckCm: 8, heightCm: null }
+
+    const low = ExamFindingsSchema.safeParse(makeExamBody({ ...along, inclinationDeg: 29 }))
+
+    expect(Object.keys(messagesByField(low))).toEqual(['heightMethod'])
+    expect(ExamFindingsSchema.safeParse(makeExamBody({ ...along, inclinationDeg: 30 })).success).toBe(true)
+  })
+
+  it('accepts a column above the neck at any inclination', () => {
+    expect(ExamFindingsSchema.safeParse(makeExamBody({ columnTop: 'above-neck', inclinationDeg: 20 })).success).toBe(true)
+  })
+
+  it('needs a reason for a column not assessable, and a text for "other"', () => {
+    const none = ExamFindingsSchema.safeParse(makeExamBody({ columnTop: 'not-assessable', heightCm: null }))
+
+    const other = ExamFindingsSchema.safeParse(makeExamBody({ columnTop: 'not-assessable', heightCm: null, notAssessableReason: 'other' }))
+
+    expect(Object.keys(messagesByField(none))).toEqual(['notAssessableReason'])
+    expect(Object.keys(messagesByField(other))).toEqual(['notAssessableText'])
+  })
+})
+
+describe('StoredEstimateSchema', () => {
+  it('reads a first-rules estimate in the current shape, numbers untouched, marked rules version 1', () => {
+    const stored = {
+      ...{ cvpCmH2O: 13.7, cvpMmHg: 10.08, bandCmH2O: [9.2, 18.2], bandMmHg: [6.8, 13.4], offsetCm: 9.7, offsetModel: 'incline-adjusted' },
+      ...{ heightCm: 4, sigmaCm: 2.29, bound: 'point', elevated: true, category: 'high', confidence: 'indeterminate', observerSource: 'local' },
+      ...{ outsideStudiedRange: false, venousSignCount: 1, mayBeArterial: true, caution: 'c', settingsVersion: 2 },
+      hints: [{ code: 'cannon-a-waves', finding: 'Cannon a waves', consider: 'atrioventricular dissociation' }],
+    }
+
+    const estimate = StoredEstimateSchema.parse(stored)
+
+    expect(estimate).toMatchObject({ rulesVersion: 1, cvpCmH2O: 13.7, bandCmH2O: [9.2, 18.2], sigmaCm: 2.29, categories: ['high'], settingsVersion: 2 })
+    expect(estimate.observerSource).toBe('local-pairs')
+    expect(estimate.cautions.map((c) => c.code)).toEqual(['few-venous-signs'])
+    expect(estimate.prompts).toEqual([{ code: 'cannon-a-waves', finding: 'Cannon a waves', differential: ['atrioventricular dissociation'] }])
   })
 })
 

@@ -21,7 +21,7 @@ function fieldErrors(value: unknown): Record<string, string> {
 }
 
 describe('the default settings', () => {
-  it('hold the cited thresholds and error terms of PRODUCT.md §4.4 and §4.6', () => {
+  it('hold the cited thresholds and error terms of the estimate', () => {
     // McGee 1998 (elevated h > 3 cm); Cook 1990 categories (low < 5, high > 10 cmH₂O); σ_offset 1.0 cm from
     // Seth 2002's supine IQR 4.7–6.1 cm ÷ 1.349; σ_read 0.5/1.5 and σ_observer 2.0 cm are product defaults, no source.
     expect(DEFAULT_ESTIMATE_SETTINGS).toEqual({
@@ -38,7 +38,7 @@ describe('the default settings', () => {
     expect((6.1 - 4.7) / 1.349).toBeCloseTo(DEFAULT_ESTIMATE_SETTINGS.sigmaOffsetCm, 1)
   })
 
-  it('pass their own checks, with the 120-minute window of §6 and photos off', () => {
+  it('pass their own checks, with a 120-minute pairing window and photos off', () => {
     expect(AppSettingsSchema.parse(DEFAULT_APP_SETTINGS)).toEqual(DEFAULT_APP_SETTINGS)
     expect(DEFAULT_APP_SETTINGS).toMatchObject({ pairWindowMinutes: 120, defaultOffsetModel: 'incline-adjusted', photosAllowed: false })
   })

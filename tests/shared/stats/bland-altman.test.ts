@@ -13,7 +13,7 @@ describe('blandAltman', () => {
     // Bland & Altman 1986 (Lancet i:307–310): mean difference −2.1, SD 38.8 l/min
     expect(result.bias).toBeCloseTo(-2.1, 1)
     expect(result.sd).toBeCloseTo(38.8, 1)
-    // exact values of the same data (PRODUCT.md §9)
+    // exact values of the same data
     expect(result.bias).toBeCloseTo(-2.117647, 6)
     expect(result.sd).toBeCloseTo(38.76513, 5)
     expect(result.n).toBe(17)

@@ -13,7 +13,7 @@ describe('cohenKappa', () => {
 
     const result = expectOk(cohenKappa(table))
 
-    // PRODUCT.md §9: 50 proposals, po = 0.70, pe = 0.50, κ = 0.40 (the worked example of Wikipedia's "Cohen's kappa")
+    // 50 proposals, po = 0.70, pe = 0.50, κ = 0.40 (the worked example of Wikipedia's "Cohen's kappa")
     expect(result.value).toBeCloseTo(0.4, 10)
     expect(result.observed).toBeCloseTo(0.7, 10)
     expect(result.expected).toBeCloseTo(0.5, 10)

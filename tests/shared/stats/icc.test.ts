@@ -10,7 +10,7 @@ describe('icc', () => {
 
     const r = expectOk(icc(ratings))
 
-    // Shrout & Fleiss 1979 (Psychol Bull 86:420–428), as quoted in PRODUCT.md §9
+    // Shrout & Fleiss 1979 (Psychol Bull 86:420–428)
     expect(r.icc1.value).toBeCloseTo(0.17, 2)
     expect(r.icc2.value).toBeCloseTo(0.29, 2)
     expect(r.icc3.value).toBeCloseTo(0.71, 2)
@@ -26,7 +26,7 @@ describe('icc', () => {
 
     const { icc2 } = expectOk(icc(ratings))
 
-    // R psych package, ICC(sf), as quoted in PRODUCT.md §9
+    // R psych package, ICC(sf, lmer = FALSE)
     expect(icc2.value).toBeCloseTo(0.2897637795, 10)
     expect(icc2.ci[0]).toBeCloseTo(0.0188, 4)
     expect(icc2.ci[1]).toBeCloseTo(0.7611, 4)

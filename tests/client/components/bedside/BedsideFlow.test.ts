@@ -83,4 +83,42 @@ describe('BedsideFlow', () => {
     expect(store.step).toBe(2)
     expect(wrapper.find<HTMLInputElement>('[data-testid="height-cm"] input').element.value).toBe('4')
   })
+
+  it('with a palpable pulsation, the review asks to confirm the column is venous and shows the refusal on that field', async () => {
+    const { store, wrapper } = await mountFlowAt(4, { ...WORKED_EXAMPLE, venousSigns: { ...WORKED_EXAMPLE.venousSigns, 'not-palpable': 'absent' } })
+
+    await wrapper.find('[data-testid="save-exam"]').trigger('click')
+    await flushPromises()
+
+    expect(store.step).toBe(4)
+    expect(wrapper.find('[data-testid="exam-arterial-warning"]').text()).toContain('Arterial evidence')
+    expect(wrapper.find('[data-testid="venous-confirm"]').text()).toContain('I confirm the column is venous')
+    expect(wrapper.find('[data-testid="venous-confirm"]').text()).toContain('confirm that the column you measured is venous')
+    expect(wrapper.find('[data-testid="review-incomplete"]').exists()).toBe(false)
+  })
+
+  it('without arterial evidence, the review asks no confirmation', async () => {
+    const { wrapper } = await mountFlowAt(4, WORKED_EXAMPLE)
+
+    expect(wrapper.find('[data-testid="venous-confirm"]').exists()).toBe(false)
+  })
+
+  it('circumstances ticked on the manoeuvres step are shown beside the result at review', async () => {
+    const { store, wrapper } = await mountFlowAt(3, WORKED_EXAMPLE)
+
+    await wrapper.find('[data-testid="context-tense-ascites"] input').setValue(true)
+    await store.goTo(4)
+    await flushPromises()
+
+    expect(store.draft?.fields.context).toEqual(['tense-ascites'])
+    expect(wrapper.find('[data-testid="exam-caution-tense-ascites"]').text()).toContain('Tense ascites')
+  })
+
+  it('the band on the review step is the live estimate’s, the one sent as reviewed', async () => {
+    const { store, wrapper } = await mountFlowAt(4, WORKED_EXAMPLE)
+
+    const [low, high] = store.estimate!.bandCmH2O!
+
+    expect(wrapper.find('[data-testid="exam-estimate-band"]').text()).toContain(`${low!.toFixed(1)}–${high!.toFixed(1)} cmH₂O`)
+  })
 })

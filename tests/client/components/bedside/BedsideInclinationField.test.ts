@@ -3,8 +3,8 @@ import { flushPromises, mount } from '@vue/test-utils'
 import { createVuetify } from 'vuetify'
 import BedsideInclinationField from '@/components/bedside/BedsideInclinationField.vue'
 
-function mountField(inclinationDeg: number | null = null) {
-  return mount(BedsideInclinationField, { props: { inclinationDeg, source: 'entered' }, global: { plugins: [createVuetify()] } })
+function mountField(inclinationDeg: number | null = null, source: 'entered' | 'sensor' = 'entered', confirmed?: boolean) {
+  return mount(BedsideInclinationField, { props: { inclinationDeg, source, confirmed }, global: { plugins: [createVuetify()] } })
 }
 
 describe('BedsideInclinationField', () => {
@@ -41,5 +41,24 @@ describe('BedsideInclinationField', () => {
 
     expect(wrapper.find('[data-testid="inclination-fallback"]').text()).toContain('enter the angle')
     expect(wrapper.find('[data-testid="inclination-input"]').exists()).toBe(true)
+  })
+
+  it('after a phone reading, asks to confirm the trunk angle (pillows, slumping) and records the confirmation', async () => {
+    const wrapper = mountField(40, 'sensor')
+
+    const prompt = wrapper.find('[data-testid="inclination-confirm"]').text()
+    await wrapper.find('[data-testid="inclination-confirm-button"]').trigger('click')
+
+    expect(prompt).toContain('The phone measured the bed back at 40°')
+    expect(prompt).toContain('Pillows')
+    expect(wrapper.emitted('update')).toContainEqual([{ inclinationConfirmed: true }])
+  })
+
+  it('asks nothing once the trunk angle is confirmed, nor for an angle typed in', () => {
+    const confirmed = mountField(40, 'sensor', true)
+    const typed = mountField(40, 'entered')
+
+    expect(confirmed.find('[data-testid="inclination-confirm"]').exists()).toBe(false)
+    expect(typed.find('[data-testid="inclination-confirm"]').exists()).toBe(false)
   })
 })

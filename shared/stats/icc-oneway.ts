@@ -1,0 +1,40 @@
+import { meanSquares } from './icc-anova.ts'
+import { fLimits, single } from './icc-limits.ts'
+import { degenerate, type Interval, type StatResult } from './result.ts'
+import { assertRectangular } from './validate.ts'
+
+/** ICC(1,1) with its 95% CI and the one-way analysis of variance behind it. */
+export type IccOneWay = StatResult<{
+  n: number
+  k: number
+  value: number
+  ci: Interval
+  /** Between subjects, n − 1 df. */
+  msBetween: number
+  /** Within subjects, n(k − 1) df. */
+  msWithin: number
+  /** MS_between / MS_within on `df`. */
+  f: number
+  df: [between: number, within: number]
+}>
+
+/**
+ * ICC(1,1), the one-way random-effects, single-rater intraclass correlation (Shrout & Fleiss 1979, case 1, Psychol Bull
+ * 86:420–428), with its F-based 95% CI as R's psych::ICC computes it. For ratings where each subject has its own set
+ * of raters, such as routine pairs: rows are subjects, columns their k readings in any order.
+ */
+export function iccOneWay(ratings: readonly (readonly number[])[]): IccOneWay {
+  const k = assertRectangular(ratings, 'ratings')
+  const n = ratings.length
+  if (n < 2) return degenerate('Needs at least 2 subjects')
+  if (k < 2) return degenerate('Needs at least 2 ratings per subject')
+  const ms = meanSquares(ratings)
+  if (ms.totalSumOfSquares === 0) return degenerate('All ratings are identical')
+  if (ms.rows === 0) return degenerate('Subjects do not differ, so the ICC is undefined')
+
+  const df: [number, number] = [n - 1, n * (k - 1)]
+  const f = ms.within === 0 ? Infinity : ms.rows / ms.within
+  const [low, high] = ms.within === 0 ? [Infinity, Infinity] : fLimits(f, df[0], df[1])
+  const value = (ms.rows - ms.within) / (ms.rows + (k - 1) * ms.within)
+  return { ok: true, n, k, value, ci: [single(low, k), single(high, k)], msBetween: ms.rows, msWithin: ms.within, f, df }
+}
