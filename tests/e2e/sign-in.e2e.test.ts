@@ -2,6 +2,8 @@ import { describe, expect, it } from 'vitest'
 import { signInAs, useDemoBrowser } from './browser.ts'
 
 const demo = useDemoBrowser()
+// Sign-in verifies a bcrypt hash of production cost: on a loaded machine that takes longer than expect.poll's default second.
+const WAIT = { timeout: 10_000 }
 
 async function freshPage() {
   const context = await demo.browser.newContext({ viewport: { width: 1280, height: 800 } })
@@ -14,17 +16,17 @@ describe('signing in with the demo accounts in Chromium', () => {
 
     await signInAs(page, demo.server.url, 'resident@saltmarsh.test')
 
-    await expect.poll(() => page.getByTestId('nav-teams').isVisible()).toBe(true)
-    await expect.poll(() => page.getByTestId('demo-ribbon').isVisible()).toBe(true)
-    await expect.poll(() => page.getByRole('heading', { name: /Dr Sam Whitcombe/ }).isVisible()).toBe(true)
+    await expect.poll(() => page.getByTestId('nav-teams').isVisible(), WAIT).toBe(true)
+    await expect.poll(() => page.getByTestId('demo-ribbon').isVisible(), WAIT).toBe(true)
+    await expect.poll(() => page.getByRole('heading', { name: /Dr Sam Whitcombe/ }).isVisible(), WAIT).toBe(true)
     expect(await page.getByTestId('nav-accounts').count()).toBe(0)
 
     await page.getByTestId('user-menu').click()
     await page.getByTestId('sign-out').click()
 
-    await expect.poll(() => new URL(page.url()).pathname).toBe('/sign-in')
+    await expect.poll(() => new URL(page.url()).pathname, WAIT).toBe('/sign-in')
     await page.goto(`${demo.server.url}/teams`)
-    await expect.poll(() => new URL(page.url()).pathname).toBe('/sign-in')
+    await expect.poll(() => new URL(page.url()).pathname, WAIT).toBe('/sign-in')
     await page.context().close()
   })
 
@@ -39,7 +41,7 @@ describe('signing in with the demo accounts in Chromium', () => {
 
     await signInAs(page, demo.server.url, email)
 
-    await expect.poll(() => page.getByTestId(`nav-${shown[1]}`).isVisible()).toBe(true)
+    await expect.poll(() => page.getByTestId(`nav-${shown[1]}`).isVisible(), WAIT).toBe(true)
     for (const name of shown) expect(await page.getByTestId(`nav-${name}`).isVisible()).toBe(true)
     for (const name of hidden) expect(await page.getByTestId(`nav-${name}`).count()).toBe(0)
     await page.context().close()
@@ -53,7 +55,7 @@ describe('signing in with the demo accounts in Chromium', () => {
 
     await page.getByTestId('sign-in-submit').click()
 
-    await expect.poll(() => page.getByTestId('sign-in-alert').isVisible()).toBe(true)
+    await expect.poll(() => page.getByTestId('sign-in-alert').isVisible(), WAIT).toBe(true)
     expect(await page.getByTestId('sign-in-email').locator('input').inputValue()).toBe('resident@saltmarsh.test')
     await page.context().close()
   })
