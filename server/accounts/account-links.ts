@@ -6,7 +6,7 @@ import type { AccountLinkPurpose } from '../models/account-link.ts'
 import { hashToken, newOpaqueToken } from '../auth/tokens.ts'
 
 /**
- * How long a link works. RELIABILITY.md gives no number. OWASP ASVS 4.0.3 2.3.1 asks that activation codes and
+ * How long a link works. OWASP ASVS 4.0.3 2.3.1 asks that activation codes and
  * initial secrets "expire after a short period of time", and the OWASP Forgot Password Cheat Sheet that reset tokens
  * expire; the numbers themselves are common practice, no source: a reset is asked for by someone waiting at a screen,
  * so 1 hour; an invitation may reach a resident on nights or on leave, so 7 days.

@@ -23,7 +23,7 @@ function core(password: string): string {
 
 /**
  * Why a new password is refused, as the message for `fields.password`, or null when it is acceptable.
- * NIST SP 800-63B §5.1.1.2: a minimum length, no composition rules, and refusing values that are "commonly-used,
+ * NIST SP 800-63B sec. 5.1.1.2: a minimum length, no composition rules, and refusing values that are "commonly-used,
  * expected, or compromised", including "repetitive or sequential characters" and "context-specific words" such as
  * the user name; OWASP ASVS 4.0.3 2.1.1, 2.1.2 and 2.1.7 set the lengths (see shared/schemas/account.ts).
  */

@@ -5,7 +5,7 @@ import { AppError } from '../errors.ts'
 import { MembershipModel } from '../models/index.ts'
 import type { Pair } from './pairs.ts'
 
-/** Which pairs a viewer may count, and on which of them the real patient code may be shown (§2). */
+/** Which pairs a viewer may count, and on which of them the real patient code may be shown (README, Roles). */
 export interface PairScope {
   includes(pair: Pair): boolean
   showsCode(pair: Pair): boolean

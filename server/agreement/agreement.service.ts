@@ -33,7 +33,7 @@ export async function agreementTrend(user: User, query: AgreementQuery): Promise
   return monthlyTrend(pairs)
 }
 
-/** A pairs download is an export (§5): recorded once, on its first page, with the filters and the number of pairs. */
+/** A pairs download is an export, so it is audited: once, on its first page, with the filters and the pair count. */
 async function auditExport(user: User, query: AgreementPairsQuery, rows: number) {
   const { page: _page, pageSize: _pageSize, export: format, ...filters } = query
   const filter = Object.fromEntries(Object.entries(filters).filter(([, v]) => v !== undefined && v !== ''))

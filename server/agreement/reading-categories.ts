@@ -3,8 +3,8 @@ import { CvpCategorySchema, type CvpCategory } from '#shared/schemas/exam'
 import { DEFAULT_ESTIMATE_SETTINGS } from '#shared/schemas/settings'
 import type { Reading } from './pairs.ts'
 
-// The estimate's own rules (§4.6) applied to the stored h and CVP columns: both readings of a pair are judged by
-// one set of thresholds, and the estimate JSON of every exam need not be parsed.
+// The estimate's own interpretation rules applied to the stored h and CVP columns: both readings of a pair are
+// judged by one set of thresholds, and the estimate JSON of every exam need not be parsed.
 const settings = DEFAULT_ESTIMATE_SETTINGS
 
 /** The declared, ordered category scale of the weighted kappa. */

@@ -26,8 +26,8 @@ async function currentCodes(examIds: string[]): Promise<string[]> {
 }
 
 /**
- * The trail for an administrator, newest first. Admins do no clinical work (§2), so patient codes are shown as
- * the same pseudonyms educators see: events about one patient still line up.
+ * The trail for an administrator, newest first. Admins do no clinical work (README, Roles), so patient codes are
+ * shown as the same pseudonyms educators see: events about one patient still line up.
  */
 export async function browseAudit(query: AuditQuery, mask: (code: string) => string): Promise<AuditPage> {
   const { rows, count } = await AuditEventModel.findAndCountAll({

@@ -1,6 +1,6 @@
 import bcrypt from 'bcryptjs'
 
-/** RELIABILITY.md (OWASP ASVS 2.4.4): bcrypt with a work factor of at least 13. */
+/** OWASP ASVS 4.0.3 2.4.4: a bcrypt work factor as large as the server allows, at least 10; 13 is a product default. */
 export const BCRYPT_COST = 13
 
 export function hashPassword(password: string): Promise<string> {

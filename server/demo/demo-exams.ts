@@ -51,7 +51,7 @@ const exam = (key: string, author: string, team: string, hoursAgo: number, submi
   findings,
 })
 
-// Invented patients. Pairs (one patient, two examiners, within the hour) feed the agreement views of §6.
+// Invented patients. Pairs (one patient, two examiners, within the hour) feed the agreement views.
 const EXAMS: DemoExam[] = [
   exam('sw-0142-a', 'resident', WARD, 50, true, seen('SM-0142', 45, 4, { notes: 'Clear double wave with the head turned slightly left.' })),
   exam('tl-0142-a', 'attending', WARD, 49.2, true, seen('SM-0142', 45, 3.5)),

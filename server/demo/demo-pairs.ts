@@ -101,7 +101,7 @@ function createdEvent(row: ExamModel) {
 }
 
 /**
- * Four months of paired resident–attending exams across the three teams (§6's agreement views), inserted in bulk with
+ * Four months of paired resident–attending exams across the three teams for the agreement views, inserted in bulk with
  * their estimates and audit entries; the same on every run, and exams already present are left alone.
  */
 export async function seedDemoPairs(teamIds: Map<string, string>, now = new Date()): Promise<number> {

@@ -35,7 +35,7 @@ function demoId(key: string): string {
 }
 
 /**
- * One closed calibration round (§6): the educator named six patients and four examiners of Ward 7 North and the AMU,
+ * One closed calibration round: the educator named six patients and four examiners of Ward 7 North and the AMU,
  * each examiner recorded blind through the exams service, one entry was never made, and the round was closed a week
  * ago. Created through the rounds and exams services (audit trail, estimates); a second run changes nothing.
  */

@@ -6,7 +6,7 @@ import { blinded, blindingClause, closedRoundsExamined } from '../rounds/round-b
 
 type Where = WhereOptions<ExamModel>
 
-/** Who sees which exams (§2), as SQL for lists and as a predicate for unmasking single rows. */
+/** Who sees which exams (README, Roles), as SQL for lists and as a predicate for unmasking single rows. */
 export interface ExamScope {
   /** Readable with the real patient code: one's own exams; for attendings, their teams' non-drafts. Null: none. */
   clinical: Where | null
@@ -32,7 +32,7 @@ export async function scopeOf(user: User): Promise<ExamScope> {
   }
   const clinical: Where[] = []
   if (recordsExams) clinical.push({ examinerId: user.id })
-  // Exams filed to their teams, and those their teams' members filed elsewhere (§2: "the residents in their teams").
+  // Attendings read their teams' residents: exams filed to their teams, and those their teams' members filed elsewhere.
   if (roles.has('attending'))
     clinical.push({ ...notDraft, [Op.or]: [{ teamId: { [Op.in]: [...teamIds] } }, { examinerId: { [Op.in]: [...colleagues] } }] })
   // Examiners of a closed calibration round may open each other's entries of it, one by one (server/rounds/round-blinding.ts).

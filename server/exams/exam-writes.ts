@@ -30,7 +30,7 @@ export async function authoredRow(author: User, id: string, transaction: Transac
   throw examNotFound()
 }
 
-/** A 409 carrying the server's copy, so an offline client can show it instead of overwriting (§7). */
+/** A 409 carrying the server's copy, so an offline client can show it instead of overwriting. */
 export async function conflict(row: ExamModel, code: string, message: string): Promise<AppError> {
   return new AppError(code, 409, message, undefined, { exam: await presentOwn(row) })
 }

@@ -29,7 +29,7 @@ function checkAuthorFields(author: User, input: ExamInput, before: ExamModel | n
 
 /** A new draft by the signed-in author. The same id sent again by its author with the same content is an offline retry. */
 export async function createExam(author: User, input: ExamInput): Promise<{ exam: Exam; created: boolean }> {
-  // Read before the write transaction: the settings in force and the local observer spread (§4.4) come from other rows.
+  // Read before the write transaction: the settings in force and the local observer spread come from other rows.
   const context = await estimateContext()
   return inTransaction(async (transaction) => {
     const existing = await ExamModel.findByPk(input.id, { transaction })

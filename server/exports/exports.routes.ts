@@ -8,7 +8,7 @@ import { examFhir, examsCsvExport } from './exports.service.ts'
 
 const IdParamsSchema = z.object({ id: z.string() })
 
-/** `GET /exams/:id/fhir` (FHIR R4) and `GET /exports/exams.csv` (§8). Mount it behind `requireAuth`. */
+/** `GET /exams/:id/fhir` (FHIR R4) and `GET /exports/exams.csv`. Mount it behind `requireAuth`. */
 export function exportsRouter(options: { secret: string }): Router {
   const router = Router()
   const mask = patientCodeMask(options.secret)

@@ -32,8 +32,8 @@ export async function examFhir(viewer: Viewer, id: string): Promise<FhirBundle> 
 
 /**
  * The exams the reader may list, filtered as the log is, as CSV, oldest first: an educator's program with codes
- * masked; one's own exams and, for attendings, their teams' (§2). Audited as `exams-export` with the filter and the
- * row count before the file leaves.
+ * masked; one's own exams and, for attendings, their teams' (README, Roles). Audited as `exams-export` with the
+ * filter and the row count before the file leaves.
  */
 export async function examsCsvExport(viewer: Viewer, query: ExamExportQuery): Promise<{ csv: string; rows: number }> {
   const scope = await scopeOf(viewer.user)
@@ -52,7 +52,7 @@ export async function examsCsvExport(viewer: Viewer, query: ExamExportQuery): Pr
     const statements = (exam: Exam) => statementsOf(exam.estimate, settings.get(versionOf(exam)))
     presented.push(...exams.map((exam, j) => ({ exam, masked: !scope.showsCode(batch[j]!), statements: statements(exam) })))
   }
-  // The trail keeps a searched patient code only as its pseudonym: admins read the trail with codes masked (§2).
+  // The trail keeps a searched patient code only as its pseudonym: admins read the trail with codes masked.
   const filter = Object.fromEntries(Object.entries(query).filter(([, v]) => v !== undefined && v !== ''))
   if (query.patientCode) filter.patientCode = viewer.mask(query.patientCode)
   await audit({

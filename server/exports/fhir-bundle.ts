@@ -105,7 +105,7 @@ function absent(code: 'unknown' | 'not-applicable', text: string): CodeableConce
   return { coding: [{ system: SYSTEM.dataAbsentReason, code, display }], text }
 }
 
-/** §4.5: above the visible neck the estimate is a lower bound, with no venous column at all an upper one. */
+/** Above the visible neck the estimate is a lower bound, with no venous column at all an upper one. */
 const COMPARATOR: Record<Bound, Quantity['comparator'] | undefined> = { point: undefined, lower: '>=', upper: '<=', none: undefined }
 
 function quantityComponent(
@@ -146,7 +146,7 @@ function components(exam: Exam): Component[] {
 }
 
 export interface BundleOptions {
-  /** The reader sees the keyed pseudonym, not the patient code (educators, §2). */
+  /** The reader sees the keyed pseudonym, not the patient code (educators). */
   masked: boolean
   /** The estimate in words, for the notes: statements, cautions and the reviewed band. */
   statements: EstimateStatements

@@ -37,8 +37,9 @@ export const EXTENSION = {
 /**
  * The observation and its components. No LOINC code means "CVP estimated from the bedside jugular venous exam":
  * 8591-0 and 60985-9 are central venous pressure as measured (profiles use them for invasive monitoring), and no
- * LOINC or SNOMED CT code for the JVP exam could be confirmed (../shared/CLINICAL.md §5). Sending a measured-CVP
- * code would let a receiver chart this estimate as an invasive reading, so the codes are our own.
+ * LOINC or SNOMED CT code for the JVP exam could be confirmed (HL7's Clinical Practice Guidelines IG,
+ * hl7.org/fhir/uv/cpg, uses a local `jvp` code for want of one). Sending a measured-CVP code would let a receiver
+ * chart this estimate as an invasive reading, so the codes are our own.
  */
 export const OBSERVATION_CODE = {
   'cvp-estimate': 'Central venous pressure estimated from the bedside jugular venous exam',

@@ -35,7 +35,7 @@ export class ExamModel extends Model<InferAttributes<ExamModel>, InferCreationAt
   declare cvpCmH2O: number | null
   declare submittedAt: Date | null
   declare returnComment: CreationOptional<string | null>
-  /** The calibration round this exam is an entry of (§6), if any. */
+  /** The calibration round this exam is an entry of, if any. */
   declare roundId: CreationOptional<string | null>
   /** The pull cursor: set by database triggers on every insert and update, never by the app. */
   declare syncSeq: CreationOptional<number | null>

@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
 
-/** A blinded calibration round (§6); `status` is `open` until its educator closes it. */
+/** A blinded calibration round; `status` is `open` until its educator closes it. */
 export class RoundModel extends Model<InferAttributes<RoundModel>, InferCreationAttributes<RoundModel>> {
   declare id: string
   declare name: string

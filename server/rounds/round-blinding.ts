@@ -6,7 +6,7 @@ import { ExamModel, RoundExaminerModel, RoundModel } from '../models/index.ts'
 type Where = WhereOptions<ExamModel>
 
 /**
- * Blinding of calibration rounds (§6): while a round is open, its entries are readable by their author only — not by
+ * Blinding of calibration rounds: while a round is open, its entries are readable by their author only — not by
  * the other examiners, not by the author's attendings, not by educators (the round's educator follows progress on
  * the round itself, without values). The clause is added to every exam scope (lists, single reads, sync pull).
  * Null when no round is open, so the usual queries stay as they are.

@@ -11,10 +11,10 @@ export interface RoundViewer {
 }
 
 /**
- * How a round's patient codes reach one viewer (§2). The round's examiners recorded the codes at the bedside and see
- * them as they are; anyone else (its educator) sees keyed pseudonyms everywhere a code appears — in fields and in free
- * text — as educators do for exams. Masking is deterministic, so a real code must never travel next to anything that
- * also shows its pseudonym.
+ * How a round's patient codes reach one viewer (README, Roles). The round's examiners recorded the codes at the
+ * bedside and see them as they are; anyone else (its educator) sees keyed pseudonyms everywhere a code appears — in
+ * fields and in free text — as educators do for exams. Masking is deterministic, so a real code must never travel
+ * next to anything that also shows its pseudonym.
  */
 export interface CodePresenter {
   masked: boolean

@@ -22,7 +22,7 @@ export type RoundStatistics = Pick<
 >
 
 /**
- * The round's agreement (§6) with examiners as raters and patient codes as subjects: ICC(2,1) over k raters with its
+ * The round's agreement with examiners as raters and patient codes as subjects: ICC(2,1) over k raters with its
  * 95% CI, Fleiss' kappa on elevated (h > threshold) / not elevated, and each examiner's mean deviation from the
  * subject's mean of all examiners. The ICC and kappa need every rater on every subject, so a patient code with any
  * missing entry is left out of all three and reported; too few complete subjects give a reason, never NaN.

@@ -9,7 +9,7 @@ import { closeRound, createRound, getRound, listRounds, roundResults } from './r
 const IdParamsSchema = z.object({ id: z.string().min(1).max(64) })
 
 /**
- * Blinded calibration rounds (§6). Educators create and close them (admins hold no clinical role, so they do not);
+ * Blinded calibration rounds. Educators create and close them (admins hold no clinical role, so they do not);
  * residents and attendings take part. Every answer shows the patient codes as the viewer may see them: real to the
  * round's examiners, keyed pseudonyms to everyone else (its educator). Mount behind `requireAuth`.
  */

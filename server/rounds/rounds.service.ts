@@ -283,7 +283,7 @@ export async function roundResults(viewer: RoundViewer, id: string): Promise<Rou
     throw new AppError('round-open', 409, 'Results are shown once the round is closed, so that no examiner sees another’s readings')
   const { recorded } = await cellsOf(loaded)
   const readings: RoundReadings = new Map([...recorded].map(([key, row]) => [key, measuredHeight(row)]))
-  // The elevated threshold in force now (§4.6, a setting), applied to every reading alike.
+  // The elevated threshold in force now (a setting), applied to every reading alike.
   const { elevatedAboveCm } = (await currentSettings()).values.estimate
   const stats = roundStatistics(loaded.patientCodes, loaded.examiners, readings, elevatedAboveCm)
   const codes = presenterFor(viewer, loaded)

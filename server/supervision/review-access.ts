@@ -4,7 +4,7 @@ import { AppError } from '../errors.ts'
 import { canRead, checkBaseVersion, conflict, examNotFound } from '../exams/exam-writes.ts'
 import { ExamModel } from '../models/index.ts'
 
-/** The exam a reviewer may countersign or return: only an attending of the exam's own team, never its author (§5). */
+/** The exam a reviewer may countersign or return: only an attending of the exam's own team, never its author. */
 export async function reviewedRow(reviewer: User, id: string, transaction?: Transaction): Promise<ExamModel> {
   const row = await ExamModel.findByPk(id, { transaction })
   if (!row || !(await canRead(reviewer, id, transaction))) throw examNotFound()

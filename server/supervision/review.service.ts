@@ -9,7 +9,7 @@ import { supersedeSignature } from './signatures.ts'
 
 const AMENDABLE = new Set(['returned', 'countersigned'])
 
-/** Sends a submitted exam back to its author with the reviewer's comment; the author amends and resubmits (§5). */
+/** Sends a submitted exam back to its author with the reviewer's comment; the author amends and resubmits. */
 export async function returnExam(reviewer: User, id: string, input: ReturnInput): Promise<Exam> {
   const row = await inTransaction(async (transaction) => {
     const row = await reviewedRow(reviewer, id, transaction)

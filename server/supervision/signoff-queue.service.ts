@@ -12,7 +12,7 @@ async function waitingFor(attending: User): Promise<WhereOptions<ExamModel>> {
   return blinded(waiting, await blindingClause(attending.id))!
 }
 
-/** The attending's sign-off queue, the longest-waiting first (§5). */
+/** The attending's sign-off queue, the longest-waiting first. */
 export async function signoffQueue(attending: User, query: SignoffQueueQuery): Promise<SignoffQueue> {
   const { rows, count } = await ExamModel.findAndCountAll({
     where: await waitingFor(attending),

@@ -27,7 +27,7 @@ export function requestNotifier({ mailer, log, baseUrl }: Omit<SupervisionRouter
 
 const IdParamsSchema = z.object({ id: z.string() })
 
-/** Countersign, return, amend, signatures, history and the sign-off queue (§5). Mount it behind `requireAuth`. */
+/** Countersign, return, amend, signatures, history and the sign-off queue. Mount it behind `requireAuth`. */
 export function supervisionRouter(options: SupervisionRouterOptions): Router {
   const router = Router()
   const mask = patientCodeMask(options.secret)

@@ -5,7 +5,7 @@ import { currentUser, requireRole } from '../middleware/auth.ts'
 import { pullChanges } from './sync-pull.service.ts'
 import { pushChanges } from './sync-push.service.ts'
 
-/** The offline client's push and pull (§7, §8). Mount it behind `requireAuth`. */
+/** The offline client's push and pull. Mount it behind `requireAuth`. */
 export function syncRouter(options: { secret: string }): Router {
   const router = Router()
   const mask = patientCodeMask(options.secret)

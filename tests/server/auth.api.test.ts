@@ -42,7 +42,7 @@ describe('POST /api/auth/login', () => {
   })
 
   it('stores passwords with bcrypt at work factor 13 and raises an older, weaker hash at the next sign-in', async () => {
-    // RELIABILITY.md (OWASP ASVS 2.4.4): bcrypt cost ≥ 13.
+    // OWASP ASVS 4.0.3 2.4.4: bcrypt cost ≥ 10; 13 is a product default.
     const user = await makeUser({ email: 'old-hash@example.test' })
     await user.update({ passwordHash: await bcrypt.hash(PASSWORD, 10) })
 

@@ -4,7 +4,7 @@ import { dropColumn } from '../columns.ts'
 const id = { type: DataTypes.STRING(36), allowNull: false }
 
 export async function up(q: QueryInterface): Promise<void> {
-  // Blinded calibration rounds (§6): an educator names patient codes and examiners; each examiner records blinded.
+  // Blinded calibration rounds: an educator names patient codes and examiners; each examiner records blinded.
   await q.createTable('rounds', {
     id: { type: DataTypes.STRING(36), primaryKey: true },
     name: { type: DataTypes.STRING(120), allowNull: false },

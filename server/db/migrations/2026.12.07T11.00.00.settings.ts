@@ -1,7 +1,7 @@
 import { DataTypes, type QueryInterface } from 'sequelize'
 import { appendOnlyTriggers } from '../triggers.ts'
 
-// The defaults of PRODUCT.md §4.6 and §6 as they stood when settings became editable, written out here so this
+// The defaults (cited in README, Clinical rules) as they stood when settings became editable, written out here so this
 // migration seeds the same version 1 whatever later code changes; tests/server/settings checks them against the schema.
 const VERSION_1 = {
   estimate: {

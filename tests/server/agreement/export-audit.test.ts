@@ -25,7 +25,7 @@ async function threePairs() {
 
 const exportsBy = (actorId: string) => AuditEventModel.findAll({ where: { action: 'agreement-pairs-export', actorId }, order: [['id', 'ASC']] })
 
-describe('GET /api/agreement/pairs?export=csv: the pairs download is audited (PRODUCT.md §5)', () => {
+describe('GET /api/agreement/pairs?export=csv: the pairs download is audited', () => {
   it('records one export with the filters and the number of pairs, on the first page only', async () => {
     const { team, educator } = await threePairs()
     const filters = { teamId: team.id, inclinationBand: '30-59', vein: 'internal' }

@@ -39,7 +39,7 @@ async function codesFor(auth: string, query: Record<string, string>) {
   return list!.pairs.map((p) => p.patientCode).sort()
 }
 
-describe('GET /api/agreement/summary and /pairs: the inclination band filter (PRODUCT.md §6)', () => {
+describe('GET /api/agreement/summary and /pairs: the inclination band filter', () => {
   it('puts each pair in the band of its mean inclination, on half-open bands [0, 30), [30, 60), [60, 90]', async () => {
     const { resident } = await ward([
       { patientCode: 'SM-0001', inclination: [0, 0] },
@@ -88,7 +88,7 @@ describe('GET /api/agreement/summary and /pairs: the inclination band filter (PR
   })
 })
 
-describe('GET /api/agreement/summary and /pairs: the vein filter (PRODUCT.md §3, §6)', () => {
+describe('GET /api/agreement/summary and /pairs: the vein filter', () => {
   const veins = () =>
     ward([
       { patientCode: 'SM-0001', inclination: [45, 45], vein: ['right-internal', 'right-internal'] },

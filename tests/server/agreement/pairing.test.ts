@@ -23,7 +23,7 @@ async function ward() {
   return { team, resident, resident2, attending, educator, exam }
 }
 
-describe('GET /api/agreement/pairs: which exams form a pair (PRODUCT.md §6)', () => {
+describe('GET /api/agreement/pairs: which exams form a pair', () => {
   it('pairs two exams of one patient by different examiners exactly 120 minutes apart', async () => {
     const { resident, attending, educator, exam } = await ward()
     await exam(resident, 0)

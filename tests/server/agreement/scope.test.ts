@@ -29,7 +29,7 @@ async function twoWards() {
 
 const codes = (list: Awaited<ReturnType<typeof pairsAs>>['list']) => list!.pairs.map((p) => p.patientCode).sort()
 
-describe('who may ask about which pairs (PRODUCT.md §2)', () => {
+describe('who may ask about which pairs', () => {
   it('a resident sees only the pairs they took part in, with the real patient code', async () => {
     const { resident } = await twoWards()
 

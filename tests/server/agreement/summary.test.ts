@@ -24,7 +24,7 @@ async function pairsOf(heights: [resident: number, attending: number][]) {
   return { resident, attending, educator: await makeCaller({ roles: ['educator'] }) }
 }
 
-describe('GET /api/agreement/summary: the statistics (PRODUCT.md §6)', () => {
+describe('GET /api/agreement/summary: the statistics', () => {
   it('matches a hand-computed set of five pairs', async () => {
     // Differences −1, −1, −2, 0, 0: bias −0.8, SD √0.7; t(0.975, 4) = 2.7764451 (Bland & Altman 1986 formulas).
     // ICC(1,1), one-way ANOVA (Shrout & Fleiss 1979, case 1: each patient has its own pair of examiners):

@@ -24,7 +24,7 @@ async function ward(name = 'Ward 7 North') {
   return { team, resident, attending, pair }
 }
 
-describe('GET /api/agreement/trend: bias and limits per month (PRODUCT.md §6 "over time")', () => {
+describe('GET /api/agreement/trend: bias and limits per month', () => {
   it('gives each UTC month its Bland–Altman figures, and lists a month without pairs as empty', async () => {
     const { pair } = await ward()
     await pair('2025-01-05T10:00:00Z', 3, 4) // −1

@@ -30,7 +30,7 @@ export function makePhoneJpeg(): Promise<Buffer> {
 
 /**
  * The tag numbers of IFD0 in an EXIF block ("Exif\0\0" then a TIFF header), read by hand after the TIFF 6.0
- * specification (§2: header, IFD entries of 12 bytes). 0x8825 is the pointer to the GPS IFD (EXIF 2.3, §4.6.3).
+ * specification (section 2: header, IFD entries of 12 bytes). 0x8825 is the pointer to the GPS IFD (EXIF 2.3, section 4.6.3).
  */
 export function ifd0Tags(exif: Buffer): number[] {
   const tiff = exif.subarray(exif.subarray(0, 6).toString('latin1') === 'Exif\0\0' ? 6 : 0)

@@ -45,7 +45,8 @@ describe('POST /api/exams', () => {
       .send({ ...makeExamInput({ teamId: team.id }), ...forged })
 
     expect(res.body).toMatchObject({ examinerId: user.id, status: 'draft', version: 1 })
-    // PRODUCT.md §4 worked example: h = 4 cm at 45°, ruler, incline-adjusted → 13.7 cmH₂O, band 9.2–18.2.
+    // Worked example with Seth 2002's offset (9.7 cm at 45°): h = 4 cm, ruler, incline-adjusted → 13.7 cmH₂O,
+    // band 9.2–18.2.
     expect(res.body.estimate.cvpCmH2O).toBeCloseTo(13.7, 2)
     expect(res.body.estimate.bandCmH2O[0]).toBeCloseTo(9.2, 1)
     expect(res.body.estimate.bandCmH2O[1]).toBeCloseTo(18.2, 1)

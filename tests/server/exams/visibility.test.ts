@@ -30,7 +30,7 @@ async function listAs(auth: string, query: Record<string, string> = {}) {
   return { res, exams: res.status === 200 ? ExamListSchema.parse(res.body).exams : [] }
 }
 
-describe('who reads which exams (PRODUCT.md §2)', () => {
+describe('who reads which exams', () => {
   it('a resident reads their own exams, drafts included', async () => {
     const { resident, draft, submitted } = await twoWards()
 

@@ -103,7 +103,8 @@ describe('GET /api/exports/exams.csv', () => {
     const { fields, rows } = parse(res.text)
     expect(fields).toEqual(DOCUMENTED_COLUMNS)
     expect(rows).toHaveLength(1)
-    // PRODUCT.md §4 worked example: h 4 cm at 45°, ruler, incline-adjusted → 13.7 cmH₂O, band 9.2–18.2
+    // Worked example with Seth 2002's offset (9.7 cm at 45°): h 4 cm, ruler, incline-adjusted → 13.7 cmH₂O,
+    // band 9.2–18.2
     expect(rows[0]).toMatchObject({
       exam_id: exam.id,
       patient_code: 'SM-0142',
@@ -135,9 +136,10 @@ describe('GET /api/exports/exams.csv', () => {
       countersign_valid: 'true',
       caution: CAUTION_TEXT,
     })
-    // NIST SP 811 (2008) App. B.8 → 1.35951 cmH₂O per mmHg (PRODUCT.md §4); dot decimals
+    // NIST SP 811 (2008) App. B.8 → 1.35951 cmH₂O per mmHg; dot decimals
     expect(Number(rows[0]!.cvp_estimate_mmhg)).toBeCloseTo(13.7 / 1.35951, 2)
-    // PRODUCT.md §4 band with the default error terms: ±1.96·√(0.5² + 1.0² + 2.0²) = ±1.96·√5.25 around 13.7.
+    // The band with the default error terms (README, Clinical rules): ±1.96·√(0.5² + 1.0² + 2.0²) = ±1.96·√5.25
+    // around 13.7.
     expect(Number(rows[0]!.estimate_band_low_cmh2o)).toBeCloseTo(13.7 - 1.96 * Math.sqrt(5.25), 2)
     expect(Number(rows[0]!.estimate_band_high_cmh2o)).toBeCloseTo(13.7 + 1.96 * Math.sqrt(5.25), 2)
     expect(rows[0]!.countersignature).toMatch(/^Countersigned by Dr Tomas Lindqvist, .+; meaning: reviewed, and agrees with the findings; version \d+\.$/)

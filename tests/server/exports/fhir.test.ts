@@ -109,10 +109,10 @@ describe('GET /api/exams/:id/fhir — a countersigned exam', () => {
     expect(ucum.validateUnitString('mmHg').status).toBe('invalid')
   })
 
-  it('carries the estimate of the PRODUCT.md §4 worked example: 13.7 cmH₂O, band 9.2–18.2, h 4 cm at 45°', () => {
+  it('carries the estimate of the worked example (Seth 2002 offset): 13.7 cmH₂O, band 9.2–18.2, h 4 cm at 45°', () => {
     const observation = observationOf(bundle)
 
-    // PRODUCT.md §4 worked example: vertical h = 4 cm at 45°, ruler, incline-adjusted → offset 9.7, CVP 13.7 cmH₂O,
+    // Worked example, Seth 2002 offset: vertical h = 4 cm at 45°, ruler, incline-adjusted → offset 9.7, CVP 13.7 cmH₂O,
     // σ = √(0.25 + 1 + 4) = 2.29, band 9.2–18.2 cmH₂O.
     expect(observation.valueQuantity).toMatchObject({ value: 13.7, code: 'cm[H2O]' })
     expect(observation.valueQuantity.comparator).toBeUndefined()
@@ -131,7 +131,7 @@ describe('GET /api/exams/:id/fhir — a countersigned exam', () => {
     const mmHg = componentOf(observationOf(bundle), 'cvp-estimate-mmhg').valueQuantity
 
     expect(mmHg.code).toBe('mm[Hg]')
-    // NIST SP 811 (2008) App. B.8: 1 mmHg = 133.3224 Pa, 1 cmH₂O = 98.0665 Pa → 1.35951 cmH₂O per mmHg (PRODUCT.md §4)
+    // NIST SP 811 (2008) App. B.8: 1 mmHg = 133.3224 Pa, 1 cmH₂O = 98.0665 Pa → 1.35951 cmH₂O per mmHg
     expect(mmHg.value).toBeCloseTo(13.7 / 1.35951, 2)
     // NLM ucum-lhc: UCUM's rounded mm[Hg] (133.322 Pa) differs by about 3 ppm, far below the two decimals sent
     expect(mmHg.value).toBeCloseTo(ucum.convertUnitTo('cm[H2O]', 13.7, 'mm[Hg]').toVal!, 2)
@@ -255,7 +255,7 @@ describe('GET /api/exams/:id/fhir — status', () => {
   })
 })
 
-describe('GET /api/exams/:id/fhir — bounds (§4.5)', () => {
+describe('GET /api/exams/:id/fhir — bounds', () => {
   it('a column above the visible neck is a lower bound: comparator >= on the value and on mmHg', async () => {
     const ward = await newWard()
     const exam = await recordExam(app, ward.resident.auth, { teamId: ward.team.id, columnTop: 'above-neck', heightCm: 8, inclinationDeg: 90 })

@@ -7,7 +7,7 @@ type App = Parameters<typeof request>[0]
 
 const HOUR_MS = 60 * 60 * 1000
 
-/** The worked example of PRODUCT.md §4 (vertical h = 4 cm at 45°, ruler, incline-adjusted), an hour ago. */
+/** The README's worked example (vertical h = 4 cm at 45°, ruler, incline-adjusted), an hour ago. */
 export function makeExamInput(overrides: Partial<ExamInputRaw> & { teamId: string }): ExamInputRaw {
   return {
     id: randomUUID(),

@@ -15,7 +15,8 @@ async function refusal(work: () => unknown): Promise<AppError> {
 }
 
 describe('firstInvalidUtf8', () => {
-  // Byte patterns from RFC 3629 §4 (the UTF-8 syntax) and the Unicode Standard's Table 3-7 (well-formed byte sequences).
+  // Byte patterns from RFC 3629 section 4 (the UTF-8 syntax) and the Unicode Standard's Table 3-7 (well-formed byte
+  // sequences).
   it('accepts ASCII, 2-, 3- and 4-byte sequences', () => {
     expect(firstInvalidUtf8(new TextEncoder().encode('a é — 𝄞'))).toBe(-1)
   })

@@ -31,7 +31,7 @@ async function roundWithEntries() {
   return { ...setup, resident, attending, round, residentEntry, attendingEntry }
 }
 
-describe('blinding of an open round (PRODUCT.md §6)', () => {
+describe('blinding of an open round', () => {
   it('an examiner asking for another examiner’s entry gets 403 before close and reads it after', async () => {
     const { educator, resident, attending, round, residentEntry, attendingEntry } = await roundWithEntries()
 

@@ -38,7 +38,7 @@ async function roundInProgress() {
   return { ...setup, created, roundId, first }
 }
 
-describe('patient codes in calibration rounds (PRODUCT.md §2, §6)', () => {
+describe('patient codes in calibration rounds', () => {
   it('the educator never receives a real code from any round endpoint, open or closed, errors included; only pseudonyms', async () => {
     const { educator, created, roundId } = await roundInProgress()
 

@@ -20,7 +20,7 @@ describe('creating a calibration round (POST /api/rounds)', () => {
     expect(round.status).toBe('open')
     expect(round.name).toBe('November calibration')
     expect(round.createdBy.displayName).toBe('Dr Hana Okafor')
-    // The educator typed the codes, but reads them back as pseudonyms, as for any exam (§2).
+    // The educator typed the codes, but reads them back as pseudonyms, as for any exam.
     expect(round.patientCodes).toEqual([pseudonym('SM-0301'), pseudonym('SM-0302')])
     expect(round.codesMasked).toBe(true)
     expect(round.examiners.map((e) => e.id)).toEqual(examiners.map((e) => e.user.id))

@@ -33,7 +33,7 @@ describe('results of a closed round (GET /api/rounds/:id/results)', () => {
     expect(results!.completeSubjects).toBe(6)
     expect(results!.raters).toBe(4)
     expect(results!.missing.count).toBe(0)
-    // Shrout & Fleiss 1979: ICC(2,1) = .29; exact 0.2897637795 and CI [0.0188, 0.7611] as R's psych::ICC computes them (PRODUCT.md §9).
+    // Shrout & Fleiss 1979: ICC(2,1) = .29; exact 0.2897637795 and CI [0.0188, 0.7611] as R's psych::ICC computes them.
     expect('value' in results!.icc && results!.icc.value).toBeCloseTo(0.2897637795, 9)
     expect('ci' in results!.icc && results!.icc.ci[0]).toBeCloseTo(0.0188, 4)
     expect('ci' in results!.icc && results!.icc.ci[1]).toBeCloseTo(0.7611, 4)
@@ -85,7 +85,7 @@ describe('results of a closed round (GET /api/rounds/:id/results)', () => {
     const { results } = await resultsAs(app, educator.auth, round.id)
 
     // SM-0302's latest entry by examiner 3 is the unmeasured one, so SM-0300 and SM-0303 remain complete.
-    // The educator reads the codes as pseudonyms (§2).
+    // The educator reads the codes as pseudonyms.
     expect(results!.completeSubjects).toBe(2)
     expect(results!.incompleteCodes).toEqual([pseudonym(subjects[1]!), pseudonym(subjects[2]!)])
     expect(results!.missing.count).toBe(2)

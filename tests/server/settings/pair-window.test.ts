@@ -19,7 +19,7 @@ async function ward() {
   return { team, resident, attending, educator, admin }
 }
 
-describe('the pairing window setting (PRODUCT.md §6)', () => {
+describe('the pairing window setting', () => {
   it('exams 150 minutes apart pair only once the window is widened to 180 minutes, and no longer once narrowed again', async () => {
     const { team, resident, attending, educator, admin } = await ward()
     const at = Date.now() - 3 * DAY

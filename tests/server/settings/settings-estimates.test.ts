@@ -21,10 +21,10 @@ async function ward() {
 
 const readExam = async (auth: string, id: string) => ExamSchema.parse((await request(app).get(`/api/exams/${id}`).set('Authorization', auth)).body)
 
-// Throughout: PRODUCT.md §4 worked example, h = 4 cm at 45°, ruler, incline-adjusted → 13.7 cmH₂O, band 9.2–18.2,
-// elevated (McGee 1998: h > 3 cm) and a band reaching normal and high (Cook 1990 categories: > 10 cmH₂O) under the
-// defaults. Raising the thresholds to elevated > 5 cm and high > 20 cmH₂O makes the same findings not elevated, and
-// their band lies wholly in normal.
+// Throughout: the worked example with Seth 2002's offset, h = 4 cm at 45°, ruler, incline-adjusted → 13.7 cmH₂O,
+// band 9.2–18.2, elevated (McGee 1998: h > 3 cm) and a band reaching normal and high (Cook 1990 categories:
+// > 10 cmH₂O) under the defaults. Raising the thresholds to elevated > 5 cm and high > 20 cmH₂O makes the same
+// findings not elevated, and their band lies wholly in normal.
 const RAISED = { estimate: { elevatedAboveCm: 5, highAboveCmH2O: 20 } }
 const DEFAULT_JUDGEMENT = { elevated: true, categories: ['normal', 'high'], confidence: 'indeterminate' }
 const RAISED_JUDGEMENT = { elevated: false, categories: ['normal'], confidence: 'clear' }
@@ -37,7 +37,7 @@ describe('settings and the estimates of exams (new estimates only)', () => {
     const exam = await recordExam(app, resident.auth, { teamId: team.id })
 
     expect(exam.estimate).toMatchObject({ ...RAISED_JUDGEMENT, settingsVersion: 2 })
-    // PRODUCT.md §4 worked example (h 4 cm at 45°, Seth 2002 incline-adjusted offset): 13.7 cmH₂O, whatever the thresholds.
+    // Worked example (h 4 cm at 45°, Seth 2002 incline-adjusted offset): 13.7 cmH₂O, whatever the thresholds.
     expect(exam.estimate.cvpCmH2O).toBeCloseTo(13.7, 9)
   })
 
@@ -89,7 +89,7 @@ describe('settings and the estimates of exams (new estimates only)', () => {
 
     expect(before.body).toMatchObject({ ...DEFAULT_JUDGEMENT, settingsVersion: 1 })
     expect(after.body).toMatchObject({ ...RAISED_JUDGEMENT, settingsVersion: 2, observerSource: 'default', observerSigmaCm: 1 })
-    // σ = √(σ_read² + σ_offset² + σ_observer²) (§4.4) with the observer term now 1 cm: √(0.25 + 1 + 1) = 1.5.
+    // σ = √(σ_read² + σ_offset² + σ_observer²) with the observer term now 1 cm: √(0.25 + 1 + 1) = 1.5.
     expect(before.body.sigmaCm).toBeCloseTo(Math.hypot(0.5, 1, 2), 9)
     expect(after.body.sigmaCm).toBeCloseTo(1.5, 9)
   })

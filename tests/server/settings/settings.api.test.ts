@@ -12,7 +12,7 @@ beforeEach(async () => {
 })
 
 describe('GET /api/settings', () => {
-  it('answers version 1 holding the cited defaults of PRODUCT.md §4.6 and §6', async () => {
+  it('answers version 1 holding the defaults: cited thresholds and the pairing window', async () => {
     const { auth } = await makeCaller({ roles: ['resident'] })
 
     const res = await request(app).get('/api/settings').set('Authorization', auth)
@@ -21,7 +21,8 @@ describe('GET /api/settings', () => {
     const settings = SettingsVersionSchema.parse(res.body)
     expect(settings.version).toBe(1)
     expect(settings.values).toEqual(DEFAULT_APP_SETTINGS)
-    // McGee 1998: elevated above 3 cm; Cook 1990 categories: low < 5, high > 10 cmH₂O; §6: 120-minute window.
+    // McGee 1998: elevated above 3 cm; Cook 1990 categories: low < 5, high > 10 cmH₂O; the 120-minute pairing window
+    // is a product default, no published source.
     expect(settings.values.estimate).toMatchObject({ elevatedAboveCm: 3, lowBelowCmH2O: 5, highAboveCmH2O: 10 })
     expect(settings.values.pairWindowMinutes).toBe(120)
     expect(settings.values.photosAllowed).toBe(false)

@@ -29,7 +29,10 @@ function sortedKeys(value: unknown): unknown {
   return value
 }
 
-/** The hash the brief prescribes, computed here from the exam as the API shows it: SHA-256 of sorted-key JSON of the record fields. */
+/**
+ * The hash that links a signature to its record (21 CFR 11.70), computed here from the exam as the API shows it:
+ * SHA-256 of sorted-key JSON of the record fields.
+ */
 function expectedHash(exam: Exam): string {
   const record = Object.fromEntries(RECORD_FIELDS.map((f) => [f, exam[f] ?? null]))
   return createHash('sha256').update(JSON.stringify(sortedKeys(record))).digest('hex')

@@ -30,7 +30,7 @@ describe('POST /api/sync/push', () => {
     expect(SyncPushResponseSchema.parse(res.body).results).toEqual([{ id: change.exam.id, result: 'applied', version: 1 }])
     const row = (await ExamModel.findByPk(change.exam.id))!
     expect(row).toMatchObject({ examinerId: resident.user.id, status: 'draft', version: 1, heightCm: 4 })
-    // h = 4 cm at 45°, Seth offset 9.7 cm → 13.7 cmH₂O (PRODUCT.md §4 worked example): the server computes it.
+    // h = 4 cm at 45°, Seth offset 9.7 cm → 13.7 cmH₂O (Seth 2002 offset at 45°): the server computes it.
     expect(row.cvpCmH2O).toBeCloseTo(13.7, 5)
     expect(await storedCounts(change.exam.id)).toEqual({ rows: 1, events: 1 })
   })

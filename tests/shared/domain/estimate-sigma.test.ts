@@ -17,7 +17,8 @@ describe('computeEstimate, σ with the default terms', () => {
   it('takes σ_offset 1.0 cm from the Seth 2002 supine IQR 4.7–6.1 cm ÷ 1.349', () => {
     const fromIqr = (6.1 - 4.7) / 1.349
 
-    // Seth 2002, abstract (Results); IQR of a normal distribution = 1.349 σ (from memory)
+    // Seth 2002, abstract (Results). The IQR of a normal distribution is 1.349 σ by definition of its quartiles:
+    // qnorm(.75) * 2 = 1.34898 in R, and (6.1 - 4.7) / (qnorm(.75) * 2) = 1.0378
     expect(defaults.sigmaOffsetCm).toBeCloseTo(fromIqr, 1)
   })
 

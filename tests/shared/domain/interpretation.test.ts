@@ -3,7 +3,8 @@ import { CAUTION_TEXT, categoriesInBand, categoryOf, elevatedOf } from '#shared/
 import { DEFAULT_ESTIMATE_SETTINGS as defaults, EstimateSettingsSchema } from '#shared/schemas/settings'
 
 describe('categoryOf', () => {
-  // Categories of Cook 1990 (Am J Med Sci, PMID 2316561; from memory): low < 5, normal 5–10, high > 10 cmH₂O.
+  // Categories of Cook 1990 (Am J Med Sci, PMID 2316561), a definition rather than a statistic: the study's low and
+  // high CVP groups, low < 5, normal 5–10, high > 10 cmH₂O.
   it.each([
     [4.999, 'low'],
     [5, 'normal'],

@@ -23,7 +23,9 @@ describe('fleissKappa', () => {
 
     const result = expectOk(fleissKappa(counts))
 
-    // Wikipedia: κ = 0.210, also checked in statsmodels' test_fleiss_kappa; P̄ = 0.378 and P̄e = 0.213 from memory
+    // Wikipedia: κ = 0.210, also checked in statsmodels' test_fleiss_kappa. P̄ and P̄e re-run in base R
+    // (Fleiss 1971's formulas, w = the count table, n = 14): mean((rowSums(w^2) - n) / (n * (n - 1))) = 0.378022,
+    // sum((colSums(w) / sum(w))^2) = 0.212755, κ = 0.209931
     expect(result.observed).toBeCloseTo(0.378, 3)
     expect(result.expected).toBeCloseTo(0.213, 3)
     expect(result.value).toBeCloseTo(0.21, 3)

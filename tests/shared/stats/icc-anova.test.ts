@@ -8,7 +8,9 @@ describe('meanSquares', () => {
 
     const ms = meanSquares(ratings)
 
-    // Shrout & Fleiss 1979 ANOVA table: BMS 11.24, WMS 6.26, JMS 32.49, EMS 1.02 (from memory)
+    // Shrout & Fleiss 1979 ANOVA table: BMS 11.24, WMS 6.26, JMS 32.49, EMS 1.02. Re-run in R 4 with the data in long
+    // form (y, subj, judge as factors): anova(aov(y ~ subj + judge)) → subj 11.242, judge 32.486, Residuals 1.019;
+    // anova(aov(y ~ subj)) → Residuals (within) 6.2639
     expect(ms.rows).toBeCloseTo(11.24, 2)
     expect(ms.within).toBeCloseTo(6.26, 2)
     expect(ms.columns).toBeCloseTo(32.49, 2)

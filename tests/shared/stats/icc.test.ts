@@ -15,7 +15,8 @@ describe('icc', () => {
     expect(r.icc2.value).toBeCloseTo(0.29, 2)
     expect(r.icc3.value).toBeCloseTo(0.71, 2)
     expect(r.icc2k.value).toBeCloseTo(0.62, 2)
-    // Shrout & Fleiss 1979, the remaining k-rater forms (from memory: ICC(1,4) = .44, ICC(3,4) = .91)
+    // The remaining k-rater forms, re-run in R with sf = the 6 × 4 matrix above:
+    // psych::ICC(sf, lmer = FALSE)$results → ICC1k 0.442797, ICC3k 0.909316
     expect(r.icc1k.value).toBeCloseTo(0.44, 2)
     expect(r.icc3k.value).toBeCloseTo(0.91, 2)
     expect([r.n, r.k]).toEqual([6, 4])
@@ -37,7 +38,9 @@ describe('icc', () => {
 
     const r = expectOk(icc(ratings))
 
-    // psych::ICC(sf) printed table, lower/upper bound columns (from memory, not re-run here)
+    // Re-run in R: psych::ICC(sf, lmer = FALSE)$results, columns `lower bound` / `upper bound`:
+    // ICC1 −0.1329323 / 0.722560, ICC3 0.3424648 / 0.945858, ICC1k −0.8844422 / 0.912415,
+    // ICC2k 0.0711368 / 0.927232, ICC3k 0.6756747 / 0.985892
     expect(r.icc1.ci[0]).toBeCloseTo(-0.133, 3)
     expect(r.icc1.ci[1]).toBeCloseTo(0.72, 2)
     expect(r.icc3.ci[0]).toBeCloseTo(0.342, 3)
