@@ -5,7 +5,7 @@ import { pairFilter, pairScopeOf, pairTime } from './agreement-scope.ts'
 import { presentPairs } from './pair-list.ts'
 import type { Pair } from './pairs.ts'
 import { programPairs } from './pair-store.ts'
-import { summarize } from './summary.ts'
+import { pointPairs, summarize } from './summary.ts'
 import { monthlyTrend } from './trend.ts'
 
 export interface AgreementViewer {
@@ -42,9 +42,13 @@ async function auditExport(user: User, query: AgreementPairsQuery, rows: number)
 
 const byExamId = (a: Pair, b: Pair) => (a.first.examId < b.first.examId ? -1 : a.first.examId > b.first.examId ? 1 : 0)
 
-/** Newest pairs first; with `export`, the first page also records the download in the audit trail. */
+/**
+ * Newest pairs with a measured height on both sides first (those the plots draw); with `export`, the first page also
+ * records the download in the audit trail.
+ */
 export async function listAgreementPairs(viewer: AgreementViewer, query: AgreementPairsQuery): Promise<AgreementPairList> {
-  const { pairs, scope, examiners } = await pairsFor(viewer.user, query)
+  const { pairs: all, scope, examiners } = await pairsFor(viewer.user, query)
+  const pairs = pointPairs(all)
   const newestFirst = pairs.sort((a, b) => pairTime(b) - pairTime(a) || byExamId(a, b))
   const page = newestFirst.slice((query.page - 1) * query.pageSize, query.page * query.pageSize)
   const codeOf = (pair: Pair) => (scope.showsCode(pair) ? pair.first.patientCode : viewer.mask(pair.first.patientCode))

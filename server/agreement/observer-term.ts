@@ -6,6 +6,7 @@ import { currentSettings, onSettingsChange } from '../settings/settings.service.
 import { pairTime } from './agreement-scope.ts'
 import type { Pair } from './pairs.ts'
 import { programPairs } from './pair-store.ts'
+import { isPoint, pointHeight } from './reading-categories.ts'
 
 /** Rounds and pairs older than this no longer describe the deployment's examiners (product default). */
 export const OBSERVER_LOOKBACK_DAYS = 365
@@ -20,12 +21,17 @@ let cached: { term: ObserverTerm; computedAt: number } | null = null
 let pending: { generation: number; term: Promise<ObserverTerm> } | null = null
 let generation = 0
 
-const samePosture = (p: Pair) => Math.abs(p.first.inclinationDeg - p.second.inclinationDeg) <= PAIR_MAX_INCLINATION_DIFF_DEG
+const comparable = (p: Pair) =>
+  isPoint(p.first) && isPoint(p.second) && Math.abs(p.first.inclinationDeg - p.second.inclinationDeg) <= PAIR_MAX_INCLINATION_DIFF_DEG
 
-/** The height differences of the routine pairs of the window whose two exams were taken at (nearly) the same inclination. */
+/**
+ * The height differences of the routine pairs of the window with a measured height on both sides (a bound has no
+ * difference to take), their two exams taken at (nearly) the same inclination.
+ */
 async function pairDifferences(since: number, now: number): Promise<number[]> {
   const { pairs } = await programPairs()
-  return pairs.filter((p) => pairTime(p) >= since && pairTime(p) <= now && samePosture(p)).map((p) => p.first.heightCm - p.second.heightCm)
+  const kept = pairs.filter((p) => pairTime(p) >= since && pairTime(p) <= now && comparable(p))
+  return kept.map((p) => pointHeight(p.first) - pointHeight(p.second))
 }
 
 async function compute(now: number): Promise<ObserverTerm> {

@@ -1,7 +1,7 @@
 import { Op, type WhereOptions } from 'sequelize'
 import { withDefaults } from '#shared/schemas/settings'
 import type { PairWrite } from './pair-derivation.ts'
-import type { Reading } from './pairs.ts'
+import { PAIR_COLUMN_TOPS, type PairColumnTop, type Reading } from './pairs.ts'
 
 interface ExamRow {
   id: string
@@ -9,21 +9,23 @@ interface ExamRow {
   examinerId: string
   teamId: string
   examinedAt: Date | string
-  verticalHeightCm: number
+  verticalHeightCm: number | null
   cvpCmH2O: number
   inclinationDeg: number
   vein: string
-  columnTop: string
+  columnTop: PairColumnTop
 }
 
 const ATTRIBUTES = ['id', 'patientCode', 'examinerId', 'teamId', 'examinedAt', 'verticalHeightCm', 'cvpCmH2O', 'inclinationDeg', 'vein', 'columnTop']
-// A reading is a non-draft exam whose column top was seen, so it has a height (bound 'point'). Calibration-round
-// entries never pair (server/rounds): the round has its own results, and counting them twice would skew the dashboard
-// and the local observer spread; pairing them would also show blinded readings before the round closes.
+// A reading is a non-draft exam with an estimate or a bound: its column top seen or above the neck, with a height, or
+// not filled (an upper bound without one). Bounds pair too, as the kappas count them (McGee 1998, Am Heart J
+// 136:10–18: a lower bound above 3 cm is elevated, "no column even lying flat" is not). Calibration-round entries never
+// pair (server/rounds): the round has its own results, and counting them twice would skew the dashboard and the local
+// observer spread; pairing them would also show blinded readings before the round closes.
 const READING = {
   status: { [Op.ne]: 'draft' },
-  columnTop: 'seen',
-  verticalHeightCm: { [Op.ne]: null },
+  columnTop: { [Op.in]: [...PAIR_COLUMN_TOPS] },
+  [Op.or]: [{ verticalHeightCm: { [Op.ne]: null } }, { columnTop: 'not-filled' }],
   cvpCmH2O: { [Op.ne]: null },
   roundId: null,
 }
@@ -34,7 +36,7 @@ const readingOf = (e: ExamRow): Reading => ({
   examinerId: e.examinerId,
   teamId: e.teamId,
   at: new Date(e.examinedAt).getTime(),
-  heightCm: e.verticalHeightCm,
+  heightCm: e.columnTop === 'not-filled' ? null : e.verticalHeightCm,
   cvpCmH2O: e.cvpCmH2O,
   inclinationDeg: e.inclinationDeg,
   vein: e.vein,

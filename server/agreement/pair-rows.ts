@@ -1,7 +1,7 @@
 import type { InferAttributes } from 'sequelize'
 import { inclinationBandOf } from '#shared/schemas/agreement'
 import type { AgreementPairModel } from '../models/index.ts'
-import type { ExamPair, Reading } from './pairs.ts'
+import type { ExamPair, PairColumnTop, Reading } from './pairs.ts'
 
 export type PairRow = InferAttributes<AgreementPairModel>
 
@@ -49,7 +49,7 @@ export function examPairOf(row: PairRow): ExamPair {
     cvpCmH2O: row.earlierCvpCmH2O,
     inclinationDeg: row.earlierInclinationDeg,
     vein: row.earlierVein,
-    columnTop: row.earlierColumnTop,
+    columnTop: row.earlierColumnTop as PairColumnTop,
   }
   const later: Reading = {
     examId: row.laterExamId,
@@ -61,7 +61,7 @@ export function examPairOf(row: PairRow): ExamPair {
     cvpCmH2O: row.laterCvpCmH2O,
     inclinationDeg: row.laterInclinationDeg,
     vein: row.laterVein,
-    columnTop: row.laterColumnTop,
+    columnTop: row.laterColumnTop as PairColumnTop,
   }
   return { earlier, later }
 }

@@ -1,6 +1,13 @@
 import type { PairOrder } from '#shared/schemas/agreement'
 
-/** One measured exam as pairing needs it: a non-draft with the column top seen and a height (bound 'point'). */
+/** The column tops that pair: a point height and the two bounds. */
+export const PAIR_COLUMN_TOPS = ['seen', 'above-neck', 'not-filled'] as const
+export type PairColumnTop = (typeof PAIR_COLUMN_TOPS)[number]
+
+/**
+ * One exam as pairing needs it: a non-draft whose column top was seen (a point height), above the neck (a lower bound:
+ * the height of the highest visible point of the neck) or not filled even lying flat (an upper bound, no height).
+ */
 export interface Reading {
   examId: string
   patientCode: string
@@ -8,13 +15,14 @@ export interface Reading {
   teamId: string
   /** examinedAt in epoch milliseconds. */
   at: number
-  heightCm: number
+  /** h: the column top's height for `seen`, the lower bound's for `above-neck`; null for `not-filled`. */
+  heightCm: number | null
+  /** The estimate for `seen`; the bound's own limit (h + offset, or the offset alone) for the bounds. */
   cvpCmH2O: number
   /** Trunk inclination and vein, for the agreement filters. */
   inclinationDeg: number
   vein: string
-  /** Always 'seen' under the rule above; kept so a reader need not assume it. */
-  columnTop: string
+  columnTop: PairColumnTop
 }
 
 /** Two readings of one patient in order of time, as `agreement_pairs` stores them. */

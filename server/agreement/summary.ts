@@ -1,21 +1,21 @@
-import { blandAltman, cohenKappa, iccOneWay, landisKoch, weightedKappa } from '#shared/stats/index'
+import { blandAltman, iccOneWay } from '#shared/stats/index'
 import type { AgreementSummary, ExaminerAgreement } from '#shared/schemas/agreement'
 import type { Examiner } from './examiners.ts'
 import type { Pair, Reading } from './pairs.ts'
-import { CATEGORY_SCALE, categoryOfReading, isElevated } from './reading-categories.ts'
+import { isPoint, pointHeight } from './reading-categories.ts'
+import { kappaCategoryOf, kappaElevatedOf } from './summary-kappas.ts'
 
 const MIN_PAIRS = 2
 const ROLE_ORDER: Record<Examiner['role'], number> = { resident: 0, attending: 1 }
 
 const unavailable = (reason: string) => ({ unavailable: reason })
-const heights = (readings: Reading[]) => readings.map((r) => r.heightCm)
+const heights = (readings: Reading[]) => readings.map(pointHeight)
 
-/** k×k counts: rows are the first reading's level, columns the second's. */
-function table(pairs: Pair[], level: (r: Reading) => number, k: number): number[][] {
-  const counts = Array.from({ length: k }, () => new Array<number>(k).fill(0))
-  for (const { first, second } of pairs) counts[level(first)]![level(second)]! += 1
-  return counts
-}
+export const HEIGHTS_LEFT_OUT =
+  'A bound on either side (column top above the neck or not filled): no measured height to take a difference of'
+
+/** The pairs with a measured height on both sides: the only ones a difference or an ICC can take. */
+export const pointPairs = (pairs: readonly Pair[]): Pair[] => pairs.filter((p) => isPoint(p.first) && isPoint(p.second))
 
 function blandAltmanOf(first: number[], second: number[]): AgreementSummary['blandAltman'] {
   const r = blandAltman(first, second)
@@ -31,27 +31,13 @@ function iccOf(first: number[], second: number[]): AgreementSummary['icc'] {
   return r.ok ? { value: r.value, ci: r.ci } : unavailable(r.reason)
 }
 
-function kappaElevatedOf(pairs: Pair[]): AgreementSummary['kappaElevated'] {
-  const r = cohenKappa(table(pairs, (x) => (isElevated(x) ? 1 : 0), 2))
-  return r.ok ? { value: r.value, label: landisKoch(r.value) } : unavailable(r.reason)
-}
-
-function kappaCategoryOf(pairs: Pair[]): AgreementSummary['kappaCategory'] {
-  const counts = table(pairs, (x) => CATEGORY_SCALE.indexOf(categoryOfReading(x)), CATEGORY_SCALE.length)
-  const linear = weightedKappa(counts, 'linear')
-  const quadratic = weightedKappa(counts, 'quadratic')
-  if (!linear.ok) return unavailable(linear.reason)
-  if (!quadratic.ok) return unavailable(quadratic.reason)
-  return { linear: linear.value, quadratic: quadratic.value, label: landisKoch(linear.value) }
-}
-
-/** Each examiner's own reading against their partner's; `focus` keeps only that examiner. */
+/** Each examiner's own reading against their partner's, over point pairs; `focus` keeps only that examiner. */
 export function byExaminer(pairs: Pair[], examiners: Map<string, Examiner>, focus?: string): ExaminerAgreement[] {
   const sides = new Map<string, { own: number[]; partner: number[] }>()
   const add = (own: Reading, partner: Reading) => {
     const side = sides.get(own.examinerId) ?? sides.set(own.examinerId, { own: [], partner: [] }).get(own.examinerId)!
-    side.own.push(own.heightCm)
-    side.partner.push(partner.heightCm)
+    side.own.push(pointHeight(own))
+    side.partner.push(pointHeight(partner))
   }
   for (const { first, second } of pairs) {
     add(first, second)
@@ -69,22 +55,30 @@ export function byExaminer(pairs: Pair[], examiners: Map<string, Examiner>, focu
     .sort((a, b) => ROLE_ORDER[a.role] - ROLE_ORDER[b.role] || a.name.localeCompare(b.name) || a.examinerId.localeCompare(b.examinerId))
 }
 
-/** Bland–Altman, ICC(1,1) and kappas over pairs, in the difference's order; too few pairs → the reason, never NaN. */
+/** Bland–Altman and ICC(1,1) over the point pairs; too few → the reason, never NaN. */
+function heightStatistics(points: Pair[], n: number) {
+  if (points.length >= MIN_PAIRS) {
+    const [first, second] = [heights(points.map((p) => p.first)), heights(points.map((p) => p.second))]
+    return { blandAltman: blandAltmanOf(first, second), icc: iccOf(first, second) }
+  }
+  const few = points.length === 0 ? 'none' : 'only 1'
+  const reason = unavailable(`Needs at least ${MIN_PAIRS} pairs with a measured height on both sides; ${few} of the ${n} pairs has`)
+  return { blandAltman: reason, icc: reason }
+}
+
+/** Bland–Altman, ICC(1,1) and kappas over pairs, in the difference's order, with what each statistic left out. */
 export function summarize(pairs: Pair[], examiners: Map<string, Examiner>, focus?: string): AgreementSummary {
   const n = pairs.length
-  const rows = byExaminer(pairs, examiners, focus)
+  const points = pointPairs(pairs)
+  const rows = byExaminer(points, examiners, focus)
+  const elevated = kappaElevatedOf(pairs)
+  const category = kappaCategoryOf(pairs)
+  const heightsLeftOut = { n: n - points.length, reason: HEIGHTS_LEFT_OUT }
+  const leftOut = { heights: heightsLeftOut, kappaElevated: elevated.leftOut, kappaCategory: category.leftOut }
   if (n < MIN_PAIRS) {
     const reason = unavailable(`Needs at least ${MIN_PAIRS} pairs; ${n === 0 ? 'none match' : 'only 1 matches'}`)
-    return { n, blandAltman: reason, icc: reason, kappaElevated: reason, kappaCategory: reason, byExaminer: rows }
+    return { n, blandAltman: reason, icc: reason, kappaElevated: reason, kappaCategory: reason, byExaminer: rows, leftOut }
   }
-  const first = heights(pairs.map((p) => p.first))
-  const second = heights(pairs.map((p) => p.second))
-  return {
-    n,
-    blandAltman: blandAltmanOf(first, second),
-    icc: iccOf(first, second),
-    kappaElevated: kappaElevatedOf(pairs),
-    kappaCategory: kappaCategoryOf(pairs),
-    byExaminer: rows,
-  }
+  const { blandAltman, icc } = heightStatistics(points, n)
+  return { n, blandAltman, icc, kappaElevated: elevated.kappa, kappaCategory: category.kappa, byExaminer: rows, leftOut }
 }

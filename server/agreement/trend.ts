@@ -2,6 +2,8 @@ import { blandAltman } from '#shared/stats/index'
 import type { AgreementTrend, MonthAgreement } from '#shared/schemas/agreement'
 import { pairTime } from './agreement-scope.ts'
 import type { Pair } from './pairs.ts'
+import { pointHeight } from './reading-categories.ts'
+import { pointPairs } from './summary.ts'
 
 /** Months since 1970-01 (UTC) of an epoch time: a key that sorts and counts on without calendar arithmetic. */
 function monthIndex(ms: number): number {
@@ -22,16 +24,17 @@ function monthOf(index: number, first: number[], second: number[]): MonthAgreeme
 
 /**
  * The Bland–Altman bias, SD and limits per calendar month (UTC) of the pairs' time (their earlier exam), with the
- * differences in the pairs' own order as in the summary; every month between the first and the last is listed.
+ * differences in the pairs' own order as in the summary, over the pairs with a measured height on both sides (a bound
+ * has no difference to take); every month between the first and the last is listed.
  */
 export function monthlyTrend(pairs: readonly Pair[]): AgreementTrend {
   const byMonth = new Map<number, { first: number[]; second: number[] }>()
-  for (const pair of pairs) {
+  for (const pair of pointPairs(pairs)) {
     const key = monthIndex(pairTime(pair))
     let month = byMonth.get(key)
     if (!month) byMonth.set(key, (month = { first: [], second: [] }))
-    month.first.push(pair.first.heightCm)
-    month.second.push(pair.second.heightCm)
+    month.first.push(pointHeight(pair.first))
+    month.second.push(pointHeight(pair.second))
   }
   if (!byMonth.size) return { months: [] }
   const keys = [...byMonth.keys()]

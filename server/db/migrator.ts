@@ -12,6 +12,7 @@ import * as attachments from './migrations/2026.12.07T12.00.00.attachments.ts'
 import * as agreementPairsTable from './migrations/2026.12.08T09.00.00.agreement-pairs-table.ts'
 import * as userRoles from './migrations/2026.12.08T10.00.00.user-roles.ts'
 import * as venousContext from './migrations/2026.12.09T09.00.00.venous-context.ts'
+import * as agreementPairBounds from './migrations/2026.12.10T09.30.00.agreement-pair-bounds.ts'
 
 interface MigrationModule {
   up(q: QueryInterface): Promise<void>
@@ -32,6 +33,7 @@ const migrations: [string, MigrationModule][] = [
   ['2026.12.08T09.00.00.agreement-pairs-table', agreementPairsTable],
   ['2026.12.08T10.00.00.user-roles', userRoles],
   ['2026.12.09T09.00.00.venous-context', venousContext],
+  ['2026.12.10T09.30.00.agreement-pair-bounds', agreementPairBounds],
 ]
 
 /** Every migration's name, oldest first. */

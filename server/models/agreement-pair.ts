@@ -19,14 +19,17 @@ export class AgreementPairModel extends Model<InferAttributes<AgreementPairModel
   declare laterTeamId: string
   declare earlierExaminedAt: Date
   declare laterExaminedAt: Date
-  declare earlierHeightCm: number
-  declare laterHeightCm: number
+  /** h; null when that exam's column top was not filled (an upper bound without a height). */
+  declare earlierHeightCm: number | null
+  declare laterHeightCm: number | null
+  /** The estimate, or for a bound its own limit. */
   declare earlierCvpCmH2O: number
   declare laterCvpCmH2O: number
   declare earlierInclinationDeg: number
   declare laterInclinationDeg: number
   declare earlierVein: string
   declare laterVein: string
+  /** `seen` (a point height), `above-neck` (a lower bound) or `not-filled` (an upper bound). */
   declare earlierColumnTop: string
   declare laterColumnTop: string
 }

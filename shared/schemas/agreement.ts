@@ -87,16 +87,40 @@ export const ExaminerAgreementSchema = z.object({
 })
 export type ExaminerAgreement = z.infer<typeof ExaminerAgreementSchema>
 
-/** Agreement on h above the sternal angle and on the derived categories. */
+/** Pairs a statistic did not count, and why (`n` 0 when it counted every pair). */
+export const LeftOutSchema = z.object({ n: z.number().int(), reason: z.string() })
+
+/**
+ * Agreement on h above the sternal angle and on the derived categories. `n` counts every matching pair, bounds
+ * included: an exam whose column top was above the neck (a lower bound, with the height of the highest visible point
+ * of the neck) or not filled even lying flat (an upper bound, no height) pairs like a seen one.
+ */
 export const AgreementSummarySchema = z.object({
   n: z.number().int(),
+  /** Over the pairs with a measured height on both sides (both column tops seen). */
   blandAltman: orUnavailable(BlandAltmanSummarySchema),
-  /** ICC(2,1) = ICC(A,1): rows are pairs, columns the two readings in the difference's order. */
+  /** ICC(1,1), one-way random effects (Shrout & Fleiss 1979, case 1), over the same pairs as `blandAltman`. */
   icc: orUnavailable(z.object({ value: z.number(), ci: interval })),
+  /**
+   * Cohen's kappa, elevated when h > 3 cm (McGee 1998, Am Heart J 136:10–18). Bounds count: above the neck with h > 3
+   * is elevated, not filled is not elevated; above the neck with h ≤ 3 cannot say and its pair is left out.
+   */
   kappaElevated: orUnavailable(z.object({ value: z.number(), label: LandisKochLabelSchema })),
-  /** Weighted over low/normal/high; the label is Landis & Koch's for the linear kappa. */
+  /**
+   * Weighted over low/normal/high (Cook 1990: low < 5, normal 5–10, high > 10 cmH₂O); the label is Landis & Koch's for
+   * the linear kappa. A point counts in its estimate's category. A bound counts only when its own limit decides one
+   * category: above the neck (CVP ≥ h + offset) with the limit above 10 is high, not filled (CVP ≤ the offset) with
+   * the limit below 5 is low; any other bound reaches two or more categories and its pair is left out.
+   */
   kappaCategory: orUnavailable(z.object({ linear: z.number(), quadratic: z.number(), label: LandisKochLabelSchema })),
+  /** Over the same pairs as `blandAltman`. */
   byExaminer: z.array(ExaminerAgreementSchema),
+  /**
+   * How many of the `n` pairs each statistic left out, and why: `heights` for Bland–Altman, the ICC, `byExaminer` and
+   * the trend (a bound on either side), `kappaElevated` and `kappaCategory` for a bound that does not decide. Always
+   * sent by servers that pair bounds; optional so that older responses still read.
+   */
+  leftOut: z.object({ heights: LeftOutSchema, kappaElevated: LeftOutSchema, kappaCategory: LeftOutSchema }).optional(),
 })
 export type AgreementSummary = z.infer<typeof AgreementSummarySchema>
 
@@ -115,7 +139,10 @@ export const PairReadingSchema = z.object({
 })
 export type PairReading = z.infer<typeof PairReadingSchema>
 
-/** A pair as the viewer may see it: the patient code is masked unless the viewer may read it on the exams. */
+/**
+ * A pair as the viewer may see it: the patient code is masked unless the viewer may read it on the exams. Lists and
+ * downloads hold the pairs with a measured height on both sides (both column tops seen), those the plots draw.
+ */
 export const AgreementPairSchema = z.object({
   patientCode: z.string(),
   order: PairOrderSchema,
@@ -138,7 +165,8 @@ export type AgreementPairList = z.infer<typeof AgreementPairListSchema>
 
 /**
  * One calendar month (UTC) of the trend: the Bland–Altman bias, SD and limits of the pairs whose earlier exam falls in
- * it, differences taken as in the summary. `bias` is null without pairs; `sd` and `loa` are null below 2 pairs.
+ * it, differences taken as in the summary, over the pairs with a measured height on both sides. `bias` is null without
+ * pairs; `sd` and `loa` are null below 2 pairs.
  */
 export const MonthAgreementSchema = z.object({
   /** `YYYY-MM`, UTC. */

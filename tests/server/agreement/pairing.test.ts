@@ -1,6 +1,6 @@
 import { beforeEach, describe, expect, it } from 'vitest'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
-import { DAY, MINUTE, pairsAs, storeExam } from './factories.ts'
+import { DAY, MINUTE, pairsAs, storeExam, summaryAs } from './factories.ts'
 
 let app: Awaited<ReturnType<typeof makeTestApp>>['app']
 
@@ -85,15 +85,28 @@ describe('GET /api/agreement/pairs: which exams form a pair', () => {
     expect(list!.total).toBe(1)
   })
 
-  it('leaves out exams without a measured height: a column top above the neck (a lower bound) or not filled', async () => {
+  it('pairs an exam whose column top was above the neck or not filled like a seen one, so the kappas can count it', async () => {
+    // Bounds count in the kappas: above the neck over 3 cm is elevated, not filled is not (McGee 1998, Am Heart J 136:10–18).
     const { resident, resident2, attending, educator, exam } = await ward()
-    await exam(resident, 0, { findings: { columnTop: 'above-neck', heightCm: 8 } })
-    await exam(resident2, 10, { findings: { columnTop: 'not-filled', heightCm: null, inclinationDeg: 0 } })
+    await exam(resident, 0, { findings: { columnTop: 'above-neck', heightCm: 8, inclinationDeg: 60 } })
+    await exam(attending, 20)
+    await exam(resident2, 0, { patientCode: 'SM-0157', findings: { columnTop: 'not-filled', heightCm: null, inclinationDeg: 0 } })
+    await exam(attending, 30, { patientCode: 'SM-0157' })
+
+    const { summary } = await summaryAs(app, educator.auth)
+
+    expect(summary!.n).toBe(2)
+    expect(summary!.leftOut!.heights.n).toBe(2)
+  })
+
+  it('leaves out an exam whose column could not be assessed', async () => {
+    const { resident, attending, educator, exam } = await ward()
+    await exam(resident, 0, { findings: { columnTop: 'not-assessable', heightCm: null, notAssessableReason: 'habitus' } })
     await exam(attending, 20)
 
-    const { list } = await pairsAs(app, educator.auth)
+    const { summary } = await summaryAs(app, educator.auth)
 
-    expect(list!.total).toBe(0)
+    expect(summary!.n).toBe(0)
   })
 
   it('pairs each exam at most once, the two nearest in time first', async () => {
