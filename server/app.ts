@@ -4,6 +4,7 @@ import express, { type Express, type NextFunction, type Request, type Response }
 import cookieParser from 'cookie-parser'
 import helmet from 'helmet'
 import type { Logger } from 'pino'
+import type { Sequelize } from 'sequelize'
 import { accountAuthRouter, accountsRouter } from './accounts/accounts.routes.ts'
 import { agreementRouter } from './agreement/agreement.routes.ts'
 import { attachmentsRouter } from './attachments/attachments.routes.ts'
@@ -15,6 +16,7 @@ import { exportsRouter } from './exports/exports.routes.ts'
 import type { FakeSmtp } from './mail/fake-smtp.ts'
 import { mailboxRouter } from './mail/mailbox.routes.ts'
 import type { Mailer } from './mail/mailer.ts'
+import type { Models } from './models/index.ts'
 import { requireAuth, requireRole } from './middleware/auth.ts'
 import { errorHandler } from './middleware/error-handler.ts'
 import { rosterRouter } from './roster/roster.routes.ts'
@@ -25,6 +27,10 @@ import { syncRouter } from './sync/sync.routes.ts'
 import { usersRouter } from './users/users.routes.ts'
 
 export interface AppDeps {
+  /** The open, migrated database; the app never opens or closes it. */
+  sequelize: Sequelize
+  /** `initModels(sequelize)`: every model, bound to that database. */
+  models: Models
   secret: string
   log: Logger
   demo: boolean
@@ -62,8 +68,15 @@ function serveClient(app: Express, dir: string) {
   })
 }
 
-/** Builds the HTTP app; the caller owns the database connection and `listen`. */
+/** Every model must be bound to the injected database: a model left on another connection would write elsewhere. */
+function checkModels({ sequelize, models }: Pick<AppDeps, 'sequelize' | 'models'>): void {
+  const stray = Object.entries(models).filter(([, model]) => model.sequelize !== sequelize)
+  if (stray.length) throw new Error(`Models not bound to the given database: ${stray.map(([name]) => name).join(', ')}`)
+}
+
+/** Builds the HTTP app on the injected database; the caller owns the connection and `listen`. */
 export function createApp(deps: AppDeps): Express {
+  checkModels(deps)
   const app = express()
   app.disable('x-powered-by')
   app.set('trust proxy', 'loopback')

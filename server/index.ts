@@ -36,7 +36,7 @@ export async function startServer(config: Config): Promise<RunningServer> {
   mkdirSync(config.DATA_DIR, { recursive: true })
   const sequelize = openDatabase(path.join(config.DATA_DIR, 'plumbline.sqlite'))
   await sequelize.authenticate()
-  initModels(sequelize)
+  const models = initModels(sequelize)
   await createMigrator(sequelize).up()
   if (config.DEMO) await seedDemo()
   // Demo: a local SMTP catcher on an ephemeral loopback port, so two instances (or e2e runs) never clash.
@@ -58,6 +58,8 @@ export async function startServer(config: Config): Promise<RunningServer> {
   // pointed at another site); without PUBLIC_URL they point at the address the server listens on.
   if (!config.PUBLIC_URL && !config.DEMO) log.warn({ url }, 'PUBLIC_URL is not set; links in e-mails point at the listening address')
   const app = createApp({
+    sequelize,
+    models,
     secret: jwtSecret(config),
     log,
     demo: config.DEMO,

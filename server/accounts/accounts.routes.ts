@@ -1,5 +1,4 @@
 import { Router } from 'express'
-import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
 import type { Logger } from 'pino'
 import {
   AccountPatchSchema,
@@ -9,9 +8,9 @@ import {
   PasswordResetRequestSchema,
   SetPasswordInputSchema,
 } from '#shared/schemas/account'
-import { AppError } from '../errors.ts'
-import type { Mailer } from '../mail/mailer.ts'
+import type { MailDeps } from '../mail/mailer.ts'
 import { currentUser, requireRole } from '../middleware/auth.ts'
+import { attemptLimiter, byAddress, byAddressAndEmail } from '../middleware/rate-limit.ts'
 import {
   deactivateAccount,
   getAccount,
@@ -22,18 +21,12 @@ import {
   updateAccount,
 } from './accounts.service.ts'
 import { runAfterResponse } from './background.ts'
-import { setAccountMailDefaults } from './invitations.ts'
 import { requestPasswordReset, setPasswordWithLink } from './password-links.service.ts'
 
-export interface AccountsRouterOptions {
-  mailer?: Mailer
-  /** Base of links in e-mails (PUBLIC_URL); never the request's Host header, which the caller controls. */
-  baseUrl: string
-}
+export type AccountsRouterOptions = MailDeps
 
 /** Admin account management, mounted under `/api` behind requireAuth. */
 export function accountsRouter({ mailer, baseUrl }: AccountsRouterOptions): Router {
-  setAccountMailDefaults({ mailer, baseUrl })
   const router = Router()
   const admin = requireRole('admin')
   const mail = () => ({ mailer, baseUrl })
@@ -66,30 +59,13 @@ export interface AccountAuthRouterOptions extends AccountsRouterOptions {
   setPasswordAttempts?: number
 }
 
-const WINDOW_MS = 15 * 60 * 1000
-
 /** Public: `POST /password-reset` and `POST /set-password`, mounted at `/api/auth`. */
 export function accountAuthRouter({ mailer, baseUrl, log, resetAttempts = 5, setPasswordAttempts = 10 }: AccountAuthRouterOptions): Router {
   const router = Router()
-  const tooMany = () => new AppError('too-many-attempts', 429, 'Too many attempts; wait 15 minutes')
-  // Counted per address and e-mail alike for known and unknown e-mails, so the limit itself reveals nothing.
-  const resetLimiter = rateLimit({
-    windowMs: WINDOW_MS,
-    limit: resetAttempts,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '').trim().toLowerCase()}`,
-    handler: (_req, _res, next) => next(tooMany()),
-  })
-  const setPasswordLimiter = rateLimit({
-    windowMs: WINDOW_MS,
-    limit: setPasswordAttempts,
-    skipSuccessfulRequests: true,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    keyGenerator: (req) => ipKeyGenerator(req.ip ?? ''),
-    handler: (_req, _res, next) => next(tooMany()),
-  })
+  const message = 'Too many attempts; wait 15 minutes'
+  // Every request counts, for known and unknown e-mails alike, so the limit itself reveals nothing.
+  const resetLimiter = attemptLimiter({ limit: resetAttempts, key: byAddressAndEmail, message })
+  const setPasswordLimiter = attemptLimiter({ limit: setPasswordAttempts, key: byAddress, message, failuresOnly: true })
 
   // No account enumeration: the answer is sent before anything depends on the address (OWASP Forgot Password
   // Cheat Sheet: same message, same time), so known and unknown addresses get the same status, body and timing.

@@ -4,10 +4,12 @@ import type { Account, AccountPage, AccountPatch, AccountQuery, InviteInput } fr
 import type { Role, TeamRef, User } from '#shared/schemas/user'
 import { audit, auditAll, type AuditEntry } from '../audit.ts'
 import { writeTransaction } from '../db/transaction.ts'
-import { AppError } from '../errors.ts'
-import type { Mailer } from '../mail/mailer.ts'
+import { AppError, FIELDS_MESSAGE, invalidInput } from '../errors.ts'
+import type { MailDeps } from '../mail/mailer.ts'
 import { MembershipModel, RefreshSessionModel, TeamModel, UserModel, withRole } from '../models/index.ts'
+import { membersOf, teamsOf } from '../users/team-members.ts'
 import { rolesOf } from '../users/users.service.ts'
+import { applyAccountEdit, newAccountFields, type AccountChange } from './account-edits.ts'
 import { sendInvitation } from './invitations.ts'
 
 function statusOf(u: UserModel): Account['status'] {
@@ -15,15 +17,8 @@ function statusOf(u: UserModel): Account['status'] {
   return u.passwordHash ? 'active' : 'invited'
 }
 
-async function teamsOf(userIds: string[], transaction?: Transaction): Promise<Map<string, TeamRef[]>> {
-  const memberships = await MembershipModel.findAll({ where: { userId: { [Op.in]: userIds } }, transaction })
-  const teams = await TeamModel.findAll({ where: { id: { [Op.in]: memberships.map((m) => m.teamId) } }, transaction })
-  const byId = new Map(teams.map((t) => [t.id, { id: t.id, name: t.name }]))
-  const result = new Map<string, TeamRef[]>()
-  for (const m of memberships) {
-    const team = byId.get(m.teamId)
-    if (team) result.set(m.userId, [...(result.get(m.userId) ?? []), team])
-  }
+async function sortedTeamsOf(userIds: string[], transaction?: Transaction): Promise<Map<string, TeamRef[]>> {
+  const result = await teamsOf(userIds, transaction)
   for (const list of result.values()) list.sort((a, b) => a.name.localeCompare(b.name))
   return result
 }
@@ -46,7 +41,7 @@ function toAccount(u: UserModel, teams: TeamRef[]): Account {
 export async function getAccount(id: string, transaction?: Transaction): Promise<Account> {
   const u = await UserModel.findByPk(id, { transaction })
   if (!u) throw new AppError('not-found', 404, 'No such account')
-  return toAccount(u, (await teamsOf([u.id], transaction)).get(u.id) ?? [])
+  return toAccount(u, (await sortedTeamsOf([u.id], transaction)).get(u.id) ?? [])
 }
 
 /** Accounts by name, then id; the search matches name or e-mail anywhere, without case (instr: no wildcards to escape). */
@@ -60,8 +55,7 @@ export async function listAccounts(q: AccountQuery): Promise<AccountPage> {
   }
   if (q.role) where.push(withRole(q.role))
   if (q.teamId) {
-    const members = await MembershipModel.findAll({ where: { teamId: q.teamId }, attributes: ['userId'] })
-    where.push({ id: { [Op.in]: members.map((m) => m.userId) } })
+    where.push({ id: { [Op.in]: [...(await membersOf([q.teamId]))] } })
   }
   if (q.active) where.push({ active: q.active === 'true' })
   const { rows, count } = await UserModel.findAndCountAll({
@@ -73,35 +67,31 @@ export async function listAccounts(q: AccountQuery): Promise<AccountPage> {
     limit: q.pageSize,
     offset: (q.page - 1) * q.pageSize,
   })
-  const teams = await teamsOf(rows.map((u) => u.id))
+  const teams = await sortedTeamsOf(rows.map((u) => u.id))
   return { accounts: rows.map((u) => toAccount(u, teams.get(u.id) ?? [])), total: count, page: q.page, pageSize: q.pageSize }
 }
 
 async function checkTeams(teamIds: string[], transaction: Transaction): Promise<string[]> {
   const unique = [...new Set(teamIds)]
   const found = await TeamModel.count({ where: { id: { [Op.in]: unique } }, transaction })
-  if (found !== unique.length) throw new AppError('invalid-input', 400, 'Some fields need attention', { teamIds: 'Choose teams from the list' })
+  if (found !== unique.length) throw invalidInput({ teamIds: 'Choose teams from the list' })
   return unique.sort()
 }
 
 const write = <T>(work: (t: Transaction) => Promise<T>) =>
   writeTransaction(UserModel.sequelize!, work)
 
-export interface AccountMailOptions {
-  mailer?: Mailer
-  baseUrl: string
-}
 
 /** Creates an account without a usable password and e-mails the invitation (after the commit). */
-export async function inviteAccount(input: InviteInput, actor: User, mail: AccountMailOptions): Promise<Account> {
+export async function inviteAccount(input: InviteInput, actor: User, mail: MailDeps): Promise<Account> {
   return write(async (transaction) => {
     if (await UserModel.findOne({ where: { email: input.email }, transaction })) {
-      throw new AppError('email-taken', 409, 'Some fields need attention', { email: 'An account with this e-mail address already exists' })
+      throw new AppError('email-taken', 409, FIELDS_MESSAGE, { email: 'An account with this e-mail address already exists' })
     }
     const teamIds = await checkTeams(input.teamIds, transaction)
     const id = randomUUID()
     await UserModel.create(
-      { id, email: input.email, displayName: input.displayName, passwordHash: null, roles: input.roles, active: true },
+      { id, email: input.email, displayName: input.displayName, roles: input.roles, ...newAccountFields() },
       { transaction },
     )
     await MembershipModel.bulkCreate(teamIds.map((teamId) => ({ userId: id, teamId })), { transaction })
@@ -115,15 +105,15 @@ export async function inviteAccount(input: InviteInput, actor: User, mail: Accou
       },
       { transaction },
     )
-    await sendInvitation({ userId: id, invitedBy: actor.id, mailer: mail.mailer, baseUrl: mail.baseUrl, transaction })
+    await sendInvitation({ userId: id, invitedBy: actor.id, ...mail, transaction })
     return getAccount(id, transaction)
   })
 }
 
 /** Sends a fresh invitation link; the earlier one stops working. */
-export async function resendInvitation(id: string, actor: User, mail: AccountMailOptions): Promise<Account> {
+export async function resendInvitation(id: string, actor: User, mail: MailDeps): Promise<Account> {
   return write(async (transaction) => {
-    await sendInvitation({ userId: id, invitedBy: actor.id, mailer: mail.mailer, baseUrl: mail.baseUrl, transaction })
+    await sendInvitation({ userId: id, invitedBy: actor.id, ...mail, transaction })
     return getAccount(id, transaction)
   })
 }
@@ -132,50 +122,23 @@ async function otherActiveAdmins(exceptId: string, transaction: Transaction): Pr
   return UserModel.count({ where: { [Op.and]: [{ id: { [Op.ne]: exceptId }, active: true }, withRole('admin')] }, transaction })
 }
 
-const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.length && [...a].sort().join() === [...b].sort().join()
+/** Taking the admin role from the only active admin would leave nobody to manage accounts. */
+async function checkKeepsAdmin(u: UserModel, roles: readonly Role[] | undefined, transaction: Transaction): Promise<void> {
+  if (!roles || roles.includes('admin') || !rolesOf(u).includes('admin') || !u.active) return
+  if ((await otherActiveAdmins(u.id, transaction)) > 0) return
+  throw new AppError('last-admin', 409, FIELDS_MESSAGE, { roles: 'This is the only active admin; make someone else an admin first' })
+}
 
 /** Changes roles, teams and the display name; one audit event per kind of change. Keeps at least one active admin. */
 export async function updateAccount(id: string, patch: AccountPatch, actor: User): Promise<Account> {
   return write(async (transaction) => {
     const u = await UserModel.findByPk(id, { transaction })
     if (!u) throw new AppError('not-found', 404, 'No such account')
-    const events: AuditEntry[] = []
-    const event = (action: string, changes: Record<string, unknown>) =>
-      events.push({ actorId: actor.id, action, entityType: 'user', entityId: u.id, changes })
-
-    if (patch.roles) {
-      const before = rolesOf(u)
-      const after = [...new Set(patch.roles)] as Role[]
-      if (before.includes('admin') && !after.includes('admin') && u.active && (await otherActiveAdmins(u.id, transaction)) === 0) {
-        throw new AppError('last-admin', 409, 'Some fields need attention', {
-          roles: 'This is the only active admin; make someone else an admin first',
-        })
-      }
-      if (!sameSet(before, after)) {
-        u.roles = after
-        event('account-roles-changed', { roles: { from: before, to: after } })
-      }
-    }
-    if (patch.displayName !== undefined && patch.displayName !== u.displayName) {
-      event('account-renamed', { displayName: { from: u.displayName, to: patch.displayName } })
-      u.displayName = patch.displayName
-    }
-    if (patch.teamIds) {
-      const after = await checkTeams(patch.teamIds, transaction)
-      const have = await MembershipModel.findAll({ where: { userId: u.id }, transaction })
-      const before = have.map((m) => m.teamId).sort()
-      if (!sameSet(before, after)) {
-        const gone = before.filter((t) => !after.includes(t))
-        const added = after.filter((t) => !before.includes(t))
-        if (gone.length) await MembershipModel.destroy({ where: { userId: u.id, teamId: { [Op.in]: gone } }, transaction })
-        await MembershipModel.bulkCreate(added.map((teamId) => ({ userId: u.id, teamId })), { transaction })
-        event('account-teams-changed', { teamIds: { from: before, to: after } })
-      }
-    }
-    if (events.length) {
-      await u.save({ transaction })
-      await auditAll(events, { transaction })
-    }
+    await checkKeepsAdmin(u, patch.roles, transaction)
+    const teamIds = patch.teamIds && (await checkTeams(patch.teamIds, transaction))
+    const made = await applyAccountEdit(u, { ...patch, teamIds }, transaction)
+    const entry = ({ action, changes }: AccountChange): AuditEntry => ({ actorId: actor.id, action, entityType: 'user', entityId: u.id, changes })
+    if (made.length) await auditAll(made.map(entry), { transaction })
     return getAccount(u.id, transaction)
   })
 }

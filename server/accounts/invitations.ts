@@ -2,36 +2,14 @@ import type { Transaction } from 'sequelize'
 import { audit } from '../audit.ts'
 import { AppError } from '../errors.ts'
 import { invitation } from '../mail/account-templates.ts'
-import type { Mailer } from '../mail/mailer.ts'
+import type { MailDeps } from '../mail/mailer.ts'
 import { UserModel } from '../models/index.ts'
 import { issueLink } from './account-links.ts'
 
-export interface AccountMail {
-  mailer?: Mailer
-  /** Where users reach the app; links in e-mails are built on it. */
-  baseUrl?: string
-}
-
-// Set by the accounts router when the app is built, so a caller without its own mailer (e.g. the roster import)
-// still sends through the app's. An explicit `mailer`/`baseUrl` always wins.
-let defaults: AccountMail = {}
-
-export function setAccountMailDefaults(mail: AccountMail): void {
-  defaults = { ...mail }
-}
-
-export function accountMailDefaults(): AccountMail {
-  return defaults
-}
-
-const FALLBACK_BASE_URL = 'http://localhost:3000'
-
-export interface SendInvitationOptions {
+export interface SendInvitationOptions extends MailDeps {
   userId: string
   /** The admin sending it; named in the e-mail and the audit trail. */
   invitedBy: string
-  mailer?: Mailer
-  baseUrl?: string
   /** When given, the link is written inside it and the e-mail leaves only after it commits. */
   transaction?: Transaction
 }
@@ -43,9 +21,7 @@ export interface SendInvitationOptions {
  * one) the link is still issued and audited, but nothing is sent.
  */
 export async function sendInvitation(opts: SendInvitationOptions): Promise<void> {
-  const { userId, invitedBy, transaction } = opts
-  const mailer = opts.mailer ?? defaults.mailer
-  const baseUrl = opts.baseUrl ?? defaults.baseUrl ?? process.env.PUBLIC_URL ?? FALLBACK_BASE_URL
+  const { userId, invitedBy, transaction, mailer, baseUrl } = opts
   const user = await UserModel.findByPk(userId, { transaction })
   if (!user) throw new AppError('not-found', 404, 'No such account')
   if (!user.active) throw new AppError('account-deactivated', 409, 'This account is deactivated; reactivate it first')

@@ -2,9 +2,9 @@ import type { PasswordResetRequest, SetPasswordInput, SetPasswordResult } from '
 import { audit } from '../audit.ts'
 import { hashPassword } from '../auth/passwords.ts'
 import { writeTransaction } from '../db/transaction.ts'
-import { AppError } from '../errors.ts'
+import { invalidInput } from '../errors.ts'
 import { passwordReset } from '../mail/account-templates.ts'
-import type { Mailer } from '../mail/mailer.ts'
+import type { MailDeps } from '../mail/mailer.ts'
 import { RefreshSessionModel, UserModel } from '../models/index.ts'
 import { findUsableLink, consumeLink, issueLink } from './account-links.ts'
 import { passwordProblem } from './password-policy.ts'
@@ -14,7 +14,7 @@ import { passwordProblem } from './password-policy.ts'
  * 1-hour reset link only when an active account has the address. An unknown address leaves only an audit event
  * without the address, so the trail neither reveals nor stores what strangers typed.
  */
-export async function requestPasswordReset(input: PasswordResetRequest, mail: { mailer?: Mailer; baseUrl: string }): Promise<void> {
+export async function requestPasswordReset(input: PasswordResetRequest, mail: MailDeps): Promise<void> {
   const user = await UserModel.findOne({ where: { email: input.email } })
   if (!user?.active) {
     await audit({ actorId: null, action: 'password-reset-requested', entityType: 'user', changes: { sent: false } })
@@ -40,7 +40,7 @@ export async function requestPasswordReset(input: PasswordResetRequest, mail: { 
 export async function setPasswordWithLink(input: SetPasswordInput): Promise<SetPasswordResult> {
   const { user } = await findUsableLink(input.token)
   const problem = passwordProblem(input.password, user.email)
-  if (problem) throw new AppError('invalid-input', 400, 'Some fields need attention', { password: problem })
+  if (problem) throw invalidInput({ password: problem })
   // Hashed before the transaction: bcrypt takes a few hundred milliseconds and must not hold the write lock.
   const passwordHash = await hashPassword(input.password)
   return writeTransaction(UserModel.sequelize!, async (transaction) => {

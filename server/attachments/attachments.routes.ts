@@ -2,7 +2,7 @@ import { Router, type Request, type Response } from 'express'
 import multer from 'multer'
 import { z } from 'zod'
 import { ATTACHMENT_MAX_BYTES } from '#shared/schemas/attachment'
-import { AppError } from '../errors.ts'
+import { AppError, invalidInput } from '../errors.ts'
 import { currentUser, requireAuth, requireRole } from '../middleware/auth.ts'
 import { attachmentStore } from './attachment-files.ts'
 import { addAttachment, deleteAttachment, listAttachments, readAttachment } from './attachments.service.ts'
@@ -25,7 +25,7 @@ function uploadError(err: unknown): unknown {
   if (!(err instanceof multer.MulterError)) return err
   if (err.code === 'LIMIT_FILE_SIZE') return new AppError('too-large', 413, `A photo may be at most ${MB} MB`, { file: `The photo is over ${MB} MB` })
   if (err.code === 'LIMIT_FILE_COUNT' || err.code === 'LIMIT_UNEXPECTED_FILE')
-    return new AppError('invalid-input', 400, 'Some fields need attention', { file: 'Send one photo per request, in the field "file"' })
+    return invalidInput({ file: 'Send one photo per request, in the field "file"' })
   return new AppError('invalid-input', 400, 'The upload could not be read', { _: err.message })
 }
 

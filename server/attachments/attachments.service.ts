@@ -9,11 +9,11 @@ import {
 } from '#shared/schemas/attachment'
 import type { User } from '#shared/schemas/user'
 import { audit } from '../audit.ts'
-import { AppError } from '../errors.ts'
+import { AppError, invalidInput } from '../errors.ts'
 import { readableRow } from '../exams/exam-queries.ts'
+import { isEditable } from '../exams/exam-rules.ts'
 import { authoredRow, inTransaction } from '../exams/exam-writes.ts'
-import { SignatureModel, type ExamModel } from '../models/index.ts'
-import { attachments, type AttachmentModel } from './attachment.model.ts'
+import { AttachmentModel, SignatureModel, type ExamModel } from '../models/index.ts'
 import {
   displayNameOf,
   readStored,
@@ -25,8 +25,6 @@ import {
   type AttachmentStore,
 } from './attachment-files.ts'
 import { checkPhotosAllowed } from './photo-policy.ts'
-
-const EDITABLE = new Set(['draft', 'returned'])
 
 /** What multer received: the bytes in memory and the name the sender gave (display only). */
 export interface Upload {
@@ -64,7 +62,7 @@ async function examShowingPhotos(user: User, examId: string): Promise<ExamModel>
 }
 
 function checkEditable(exam: ExamModel): void {
-  if (!EDITABLE.has(exam.status))
+  if (!isEditable(exam.status))
     throw new AppError('attachments-locked', 409, `This exam is ${exam.status}: its photos can no longer be added or removed`)
 }
 
@@ -74,13 +72,13 @@ const live = (examId: string) => ({ examId, deletedAt: null })
 async function checkCanAttach(author: User, examId: string, attachmentId: string | undefined): Promise<AttachmentModel | null> {
   return inTransaction(async (transaction) => {
     const exam = await authoredRow(author, examId, transaction)
-    const existing = attachmentId ? await attachments().findByPk(attachmentId, { transaction }) : null
+    const existing = attachmentId ? await AttachmentModel.findByPk(attachmentId, { transaction }) : null
     if (existing) {
       if (existing.examId === examId && existing.createdBy === author.id && !existing.deletedAt) return existing
       throw new AppError('id-taken', 409, 'Another photo already has this id')
     }
     checkEditable(exam)
-    const count = await attachments().count({ where: live(examId), transaction })
+    const count = await AttachmentModel.count({ where: live(examId), transaction })
     if (count >= ATTACHMENTS_PER_EXAM)
       throw new AppError('attachment-limit', 409, `An exam holds at most ${ATTACHMENTS_PER_EXAM} photos; remove one before adding another`)
     return null
@@ -88,7 +86,7 @@ async function checkCanAttach(author: User, examId: string, attachmentId: string
 }
 
 async function cleanPhoto(upload: Upload | undefined): Promise<{ bytes: Buffer; mime: AttachmentMime; width: number; height: number }> {
-  if (!upload?.buffer.length) throw new AppError('invalid-input', 400, 'Some fields need attention', { file: 'Choose a photo to attach' })
+  if (!upload?.buffer.length) throw invalidInput({ file: 'Choose a photo to attach' })
   const mime = await sniffImageType(upload.buffer)
   const clean = await stripMetadata(upload.buffer, mime)
   return { ...clean, mime }
@@ -116,9 +114,9 @@ export async function addAttachment(
       // Checked again under the write lock: the exam may have been submitted, or filled, while the photo was encoded.
       const exam = await authoredRow(author, examId, transaction)
       checkEditable(exam)
-      if ((await attachments().count({ where: live(examId), transaction })) >= ATTACHMENTS_PER_EXAM)
+      if ((await AttachmentModel.count({ where: live(examId), transaction })) >= ATTACHMENTS_PER_EXAM)
         throw new AppError('attachment-limit', 409, `An exam holds at most ${ATTACHMENTS_PER_EXAM} photos; remove one before adding another`)
-      const created = await attachments().create(
+      const created = await AttachmentModel.create(
         {
           id: input.id ?? randomUUID(),
           examId,
@@ -149,13 +147,13 @@ export async function addAttachment(
 
 export async function listAttachments(user: User, examId: string): Promise<Attachment[]> {
   await examShowingPhotos(user, examId)
-  const rows = await attachments().findAll({ where: live(examId), order: [['createdAt', 'ASC'], ['id', 'ASC']] })
+  const rows = await AttachmentModel.findAll({ where: live(examId), order: [['createdAt', 'ASC'], ['id', 'ASC']] })
   return rows.map(present)
 }
 
 /** A photo's record and bytes, for a user who may see the exam's photos. */
 export async function readAttachment(store: AttachmentStore, user: User, id: string): Promise<{ attachment: Attachment; bytes: Buffer }> {
-  const row = await attachments().findOne({ where: { id, deletedAt: null } })
+  const row = await AttachmentModel.findOne({ where: { id, deletedAt: null } })
   if (!row) throw notFound()
   await examShowingPhotos(user, row.examId).catch((e: unknown) => {
     // The photo of an exam the user cannot read does not exist for them.
@@ -170,7 +168,7 @@ export async function readAttachment(store: AttachmentStore, user: User, id: str
  */
 export async function deleteAttachment(store: AttachmentStore, author: User, id: string): Promise<void> {
   const storedName = await inTransaction(async (transaction) => {
-    const row = await attachments().findOne({ where: { id, deletedAt: null }, transaction })
+    const row = await AttachmentModel.findOne({ where: { id, deletedAt: null }, transaction })
     if (!row) throw notFound()
     const exam = await authoredRow(author, row.examId, transaction).catch((e: unknown) => {
       throw e instanceof AppError && e.status === 404 ? notFound() : e

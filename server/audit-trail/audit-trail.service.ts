@@ -1,12 +1,12 @@
 import { Op, type WhereOptions } from 'sequelize'
 import type { AuditPage, AuditQuery } from '#shared/schemas/audit'
-import { AppError } from '../errors.ts'
+import { invalidInput } from '../errors.ts'
 import { AuditEventModel, ExamModel } from '../models/index.ts'
 import { maskEvents, presentEvents } from './audit-events.ts'
 
 function whereOf(query: AuditQuery): WhereOptions<AuditEventModel> {
   if (query.from && query.to && new Date(query.from) > new Date(query.to))
-    throw new AppError('invalid-input', 400, 'Some fields need attention', { to: 'The end of the range is before its start' })
+    throw invalidInput({ to: 'The end of the range is before its start' })
   const at = {
     ...(query.from && { [Op.gte]: new Date(query.from) }),
     ...(query.to && { [Op.lte]: new Date(query.to) }),

@@ -1,7 +1,6 @@
 import { Router, type CookieOptions, type Response } from 'express'
-import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
 import { LoginInputSchema } from '#shared/schemas/user'
-import { AppError } from '../errors.ts'
+import { attemptLimiter, byAddressAndEmail } from '../middleware/rate-limit.ts'
 import { login, logout, refresh, REFRESH_TTL_MS, type IssuedSession } from './auth.service.ts'
 
 export const REFRESH_COOKIE = 'plumbline_refresh'
@@ -18,15 +17,8 @@ export function authRouter({ secret, cookieSecure, loginAttempts }: AuthRouterOp
   const cookie: CookieOptions = { httpOnly: true, sameSite: 'strict', secure: cookieSecure, path: '/api/auth' }
   const send = (res: Response, s: IssuedSession) =>
     res.cookie(REFRESH_COOKIE, s.refreshToken, { ...cookie, maxAge: REFRESH_TTL_MS }).json({ token: s.token, user: s.user })
-  const limiter = rateLimit({
-    windowMs: 15 * 60 * 1000,
-    limit: loginAttempts,
-    skipSuccessfulRequests: true,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '').toLowerCase()}`,
-    handler: (_req, _res, next) => next(new AppError('too-many-attempts', 429, 'Too many sign-in attempts; wait 15 minutes')),
-  })
+  const message = 'Too many sign-in attempts; wait 15 minutes'
+  const limiter = attemptLimiter({ limit: loginAttempts, key: byAddressAndEmail, message, failuresOnly: true })
 
   router.post('/login', limiter, async (req, res) => send(res, await login(secret, LoginInputSchema.parse(req.body))))
   router.post('/refresh', async (req, res) => send(res, await refresh(secret, req.cookies?.[REFRESH_COOKIE])))

@@ -1,7 +1,9 @@
 import { createHmac } from 'node:crypto'
 import { Op, type WhereOptions } from 'sequelize'
 import type { User } from '#shared/schemas/user'
-import { MembershipModel, type ExamModel } from '../models/index.ts'
+import type { ExamModel } from '../models/index.ts'
+import { membersOf, teamIdsOf } from '../users/team-members.ts'
+import { isAuthor } from './exam-rules.ts'
 import { blinded, blindingClause, closedRoundsExamined } from '../rounds/round-blinding.ts'
 
 type Where = WhereOptions<ExamModel>
@@ -24,12 +26,8 @@ const notDraft: Where = { status: { [Op.ne]: 'draft' } }
 export async function scopeOf(user: User): Promise<ExamScope> {
   const roles = new Set(user.roles)
   const recordsExams = roles.has('resident') || roles.has('attending')
-  const teamIds = new Set(user.teams.map((t) => t.id))
-  const colleagues = new Set<string>()
-  if (roles.has('attending')) {
-    const memberships = await MembershipModel.findAll({ where: { teamId: { [Op.in]: [...teamIds] } } })
-    for (const m of memberships) colleagues.add(m.userId)
-  }
+  const teamIds = new Set(teamIdsOf(user))
+  const colleagues = roles.has('attending') ? await membersOf(teamIds) : new Set<string>()
   const clinical: Where[] = []
   if (recordsExams) clinical.push({ examinerId: user.id })
   // Attendings read their teams' residents: exams filed to their teams, and those their teams' members filed elsewhere.
@@ -47,7 +45,7 @@ export async function scopeOf(user: User): Promise<ExamScope> {
     unblinded: readable({ clinical: clinicalWhere, program: programWhere, showsCode: () => false }),
     roundPeers: closedRounds.size ? { ...notDraft, roundId: { [Op.in]: [...closedRounds] } } : null,
     showsCode: (row) =>
-      (recordsExams && row.examinerId === user.id) ||
+      (recordsExams && isAuthor(row, user)) ||
       (roles.has('attending') && row.status !== 'draft' && (teamIds.has(row.teamId) || colleagues.has(row.examinerId))) ||
       (row.status !== 'draft' && !!row.roundId && closedRounds.has(row.roundId)),
   }

@@ -1,7 +1,7 @@
 import { Op, type WhereOptions } from 'sequelize'
 import type { Exam, ExamList, ExamListQuery } from '#shared/schemas/exam'
 import type { User } from '#shared/schemas/user'
-import { AppError } from '../errors.ts'
+import { AppError, invalidInput } from '../errors.ts'
 import { ExamModel } from '../models/index.ts'
 import { readable, scopeOf, type ExamScope } from './exam-access.ts'
 import { present } from './exam-record.ts'
@@ -21,7 +21,7 @@ const SORT_COLUMNS: Record<ExamListQuery['sort'], string> = {
   updatedAt: 'updatedAt',
 }
 
-const invalid = (field: string, message: string) => new AppError('invalid-input', 400, 'Some fields need attention', { [field]: message })
+const invalid = (field: string, message: string) => invalidInput({ [field]: message })
 
 /** The exam log's filters, shared by the list and the CSV export; only the list sorts. */
 export type ExamFilterQuery = Pick<ExamListQuery, 'status' | 'teamId' | 'examinerId' | 'patientCode' | 'from' | 'to'> &

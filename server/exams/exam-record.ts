@@ -1,6 +1,8 @@
 import { Op } from 'sequelize'
 import { ExamInputSchema, ExamSchema, type Exam, type ExamInput } from '#shared/schemas/exam'
+import type { User } from '#shared/schemas/user'
 import { ExamModel, TeamModel, UserModel } from '../models/index.ts'
+import { isAuthor } from './exam-rules.ts'
 import { signaturesOf } from '../supervision/signatures.ts'
 import { maskCodes } from './code-masking.ts'
 import { sortedJson, storedInput } from './exam-columns.ts'
@@ -61,6 +63,9 @@ function canonical({ reviewed: _reviewed, ...input }: ExamInput): string {
     notAssessableText: input.notAssessableText ?? null,
   })
 }
+
+/** The author's stored row already holds exactly this content: a retry whose answer was lost, not a new write. */
+export const isRetryOf = (row: ExamModel, author: User, input: ExamInput): boolean => isAuthor(row, author) && sameRecord(row, input)
 
 /** Whether a stored row holds exactly this record, however the client wrote the time or ordered the keys. */
 export function sameRecord(row: ExamModel, input: ExamInput): boolean {

@@ -8,6 +8,7 @@ import { derivePairs } from '../agreement/pair-derivation.ts'
 import { readable, scopeOf } from './exam-access.ts'
 import { changesBetween, snapshotOf } from './exam-changes.ts'
 import { presentOwn } from './exam-record.ts'
+import { isAuthor } from './exam-rules.ts'
 
 // IMMEDIATE takes the write lock up front, so two writes to one exam cannot interleave between check and save.
 export function inTransaction<T>(work: (transaction: Transaction) => Promise<T>): Promise<T> {
@@ -25,7 +26,7 @@ export const examNotFound = () => new AppError('exam-not-found', 404, 'No such e
 /** The author's exam; a reader who is not its author gets 403, anyone else 404. */
 export async function authoredRow(author: User, id: string, transaction: Transaction): Promise<ExamModel> {
   const row = await ExamModel.findByPk(id, { transaction })
-  if (row?.examinerId === author.id) return row
+  if (row && isAuthor(row, author)) return row
   if (row && (await canRead(author, id, transaction))) throw new AppError('not-author', 403, 'Only the author can change this exam')
   throw examNotFound()
 }

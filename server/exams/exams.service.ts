@@ -1,30 +1,23 @@
 import { ExamInputSchema, type Exam, type ExamInput, type ExamPatch } from '#shared/schemas/exam'
 import type { User } from '#shared/schemas/user'
 import { audit } from '../audit.ts'
-import { AppError } from '../errors.ts'
+import { AppError, invalidInput } from '../errors.ts'
 import { ExamModel } from '../models/index.ts'
 import { changesBetween, snapshotOf } from './exam-changes.ts'
-import { columnsOf, presentOwn, sameRecord, storedInput } from './exam-record.ts'
+import { columnsOf, isRetryOf, presentOwn, storedInput } from './exam-record.ts'
 import { invalidateObserverTerm } from '../agreement/observer-term.ts'
 import { derivePairs } from '../agreement/pair-derivation.ts'
 import { estimateContext } from '../settings/settings-estimate.ts'
 import { roundFieldErrors } from '../rounds/round-membership.ts'
+import { authorFieldErrors, isEditable } from './exam-rules.ts'
 import { authoredRow, checkBaseVersion, conflict, inTransaction, saveChange } from './exam-writes.ts'
 import { savedEstimate } from './saved-estimate.ts'
 import { checkVenousConfirmed } from './submit-checks.ts'
 
-const FUTURE_TOLERANCE_MS = 5 * 60 * 1000
-const EDITABLE = new Set(['draft', 'returned'])
-
-/** Rules the schema cannot know: the author's own teams and the server's clock; checked on new or changed values. */
+/** The author rules (exam-rules.ts) and the round's, as one 400. */
 function checkAuthorFields(author: User, input: ExamInput, before: ExamModel | null, more: Record<string, string> = {}): void {
-  const fields: Record<string, string> = { ...more }
-  if (input.teamId !== before?.teamId && !author.teams.some((t) => t.id === input.teamId))
-    fields.teamId = 'Choose one of your own teams'
-  const examinedAt = new Date(input.examinedAt).getTime()
-  if (examinedAt !== before?.examinedAt.getTime() && examinedAt > Date.now() + FUTURE_TOLERANCE_MS)
-    fields.examinedAt = 'The time of the exam cannot be in the future'
-  if (Object.keys(fields).length) throw new AppError('invalid-input', 400, 'Some fields need attention', fields)
+  const fields = { ...more, ...authorFieldErrors(author, input, before) }
+  if (Object.keys(fields).length) throw invalidInput(fields)
 }
 
 /** A new draft by the signed-in author. The same id sent again by its author with the same content is an offline retry. */
@@ -33,7 +26,7 @@ export async function createExam(author: User, input: ExamInput): Promise<{ exam
   const context = await estimateContext()
   return inTransaction(async (transaction) => {
     const existing = await ExamModel.findByPk(input.id, { transaction })
-    if (existing && existing.examinerId === author.id && sameRecord(existing, input))
+    if (existing && isRetryOf(existing, author, input))
       return { exam: await presentOwn(existing), created: false }
     if (existing) throw new AppError('id-taken', 409, 'Another exam already has this id')
     checkAuthorFields(author, input, null, await roundFieldErrors(author, input, null, transaction))
@@ -48,7 +41,7 @@ export async function createExam(author: User, input: ExamInput): Promise<{ exam
 
 /** Drafts and returned exams can change; submitted and countersigned ones are locked. */
 async function checkEditable(row: ExamModel, baseVersion: number | undefined): Promise<void> {
-  if (!EDITABLE.has(row.status)) throw await conflict(row, 'exam-locked', `This exam is ${row.status} and can no longer be changed`)
+  if (!isEditable(row.status)) throw await conflict(row, 'exam-locked', `This exam is ${row.status} and can no longer be changed`)
   await checkBaseVersion(row, baseVersion)
 }
 

@@ -10,6 +10,14 @@ export interface MailMessage {
   text: string
 }
 
+/** How workflow and account e-mails leave: passed down from the app's dependencies to every sender. */
+export interface MailDeps {
+  /** Absent in API tests that send nothing. */
+  mailer?: Mailer
+  /** Where users reach the app (PUBLIC_URL); links in e-mails are built on it, never on a request's Host header. */
+  baseUrl: string
+}
+
 export interface MailerOptions extends Partial<RetryPolicy> {
   host: string
   port: number

@@ -1,16 +1,7 @@
 import type { NextFunction, Request, Response } from 'express'
 import { ZodError } from 'zod'
 import type { Logger } from 'pino'
-import { AppError } from '../errors.ts'
-
-function fieldsOf(error: ZodError): Record<string, string> {
-  const fields: Record<string, string> = {}
-  for (const issue of error.issues) {
-    const key = issue.path.join('.') || '_'
-    fields[key] ??= issue.message
-  }
-  return fields
-}
+import { AppError, fieldsOf, invalidInput } from '../errors.ts'
 
 interface HttpLikeError {
   status?: number
@@ -18,11 +9,8 @@ interface HttpLikeError {
 }
 
 export function errorHandler(log: Logger) {
-  return (err: unknown, _req: Request, res: Response, _next: NextFunction) => {
-    if (err instanceof ZodError) {
-      res.status(400).json({ error: { code: 'invalid-input', message: 'Some fields need attention', fields: fieldsOf(err) } })
-      return
-    }
+  return (thrown: unknown, _req: Request, res: Response, _next: NextFunction) => {
+    const err = thrown instanceof ZodError ? invalidInput(fieldsOf(thrown)) : thrown
     if (err instanceof AppError) {
       res.status(err.status).json({ ...err.extra, error: { code: err.code, message: err.message, fields: err.fields } })
       return

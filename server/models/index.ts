@@ -1,17 +1,12 @@
-import {
-  DataTypes,
-  Model,
-  type CreationOptional,
-  type InferAttributes,
-  type InferCreationAttributes,
-  type Sequelize,
-} from 'sequelize'
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
 import { ExamModel, initExamModel } from './exam.ts'
 import { SignatureModel, initSignatureModel } from './signature.ts'
 import { RoundExaminerModel, RoundModel, RoundPatientCodeModel, initRoundModels } from './round.ts'
 import { AccountLinkModel, initAccountLinkModel } from './account-link.ts'
 import { UserModel, UserRoleModel, initUserModels, withRole } from './user.ts'
 import { AgreementPairModel, initAgreementPairModel } from './agreement-pair.ts'
+import { AttachmentModel, initAttachmentModel } from './attachment.ts'
+import { SettingsVersionModel, initSettingsVersionModel } from './settings-version.ts'
 
 export { UserModel, UserRoleModel, withRole }
 export { ExamModel }
@@ -19,6 +14,8 @@ export { SignatureModel }
 export { RoundModel, RoundPatientCodeModel, RoundExaminerModel }
 export { AccountLinkModel }
 export { AgreementPairModel }
+export { AttachmentModel }
+export { SettingsVersionModel }
 
 export class TeamModel extends Model<InferAttributes<TeamModel>, InferCreationAttributes<TeamModel>> {
   declare id: string
@@ -60,7 +57,7 @@ export class AuditEventModel extends Model<InferAttributes<AuditEventModel>, Inf
 
 export type Models = ReturnType<typeof initModels>
 
-/** Binds the model classes to a connection; the tables themselves come from migrations. */
+/** Binds every model class to a connection, in this one place; the tables themselves come from migrations. */
 export function initModels(sequelize: Sequelize) {
   const id = { type: DataTypes.STRING(36), primaryKey: true }
   const stamps = { createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE }
@@ -103,5 +100,23 @@ export function initModels(sequelize: Sequelize) {
   initRoundModels(sequelize)
   initAccountLinkModel(sequelize)
   initAgreementPairModel(sequelize)
-  return { UserModel, UserRoleModel, TeamModel, MembershipModel, RefreshSessionModel, AuditEventModel, ExamModel, SignatureModel, AgreementPairModel }
+  initAttachmentModel(sequelize)
+  initSettingsVersionModel(sequelize)
+  return {
+    UserModel,
+    UserRoleModel,
+    TeamModel,
+    MembershipModel,
+    RefreshSessionModel,
+    AuditEventModel,
+    ExamModel,
+    SignatureModel,
+    RoundModel,
+    RoundPatientCodeModel,
+    RoundExaminerModel,
+    AccountLinkModel,
+    AgreementPairModel,
+    AttachmentModel,
+    SettingsVersionModel,
+  }
 }

@@ -3,16 +3,13 @@ import multer from 'multer'
 import type { Logger } from 'pino'
 import { ROSTER_MAX_BYTES, type RosterApplyResult } from '#shared/schemas/roster'
 import { AppError } from '../errors.ts'
-import type { Mailer } from '../mail/mailer.ts'
+import type { MailDeps } from '../mail/mailer.ts'
 import { currentUser } from '../middleware/auth.ts'
 import { parseRoster, rosterText } from './roster-file.ts'
 import { applyRoster, previewRoster } from './roster.service.ts'
 
-export interface RosterRouterOptions {
+export interface RosterRouterOptions extends MailDeps {
   log: Logger
-  mailer?: Mailer
-  /** Base of links in e-mails; the request's own origin when omitted. */
-  baseUrl: string
 }
 
 const FIELD = 'file'

@@ -3,13 +3,13 @@ import { col, fn, Op, where, type Transaction } from 'sequelize'
 import { z } from 'zod'
 import type { RosterChanges, RosterCounts, RosterPreview, RosterRow } from '#shared/schemas/roster'
 import { RoleSchema, type Role, type User } from '#shared/schemas/user'
+import { applyAccountEdit, newAccountFields } from '../accounts/account-edits.ts'
 import { sendInvitation } from '../accounts/invitations.ts'
 import { auditAll, type AuditEntry } from '../audit.ts'
 import { writeTransaction } from '../db/transaction.ts'
-import type { Mailer } from '../mail/mailer.ts'
+import type { MailDeps } from '../mail/mailer.ts'
 import { MembershipModel, TeamModel, UserModel } from '../models/index.ts'
 import { rolesOf } from '../users/users.service.ts'
-import { newAccountFields } from './roster-accounts.ts'
 import type { RosterFile, RosterLine } from './roster-file.ts'
 
 const ROLES = RoleSchema.options
@@ -185,10 +185,6 @@ export interface AppliedRoster {
   skipped: number
 }
 
-export interface RosterInvitations {
-  mailer?: Mailer
-  baseUrl?: string
-}
 
 // Audit actions and shapes as the Accounts screen writes them (server/accounts/accounts.service.ts), plus the source.
 const SOURCE = { source: 'roster-import' } as const
@@ -216,35 +212,20 @@ async function createAccounts(targets: Target[], actor: User, transaction: Trans
   }))
 }
 
-/** Writes the row's changes; one audit event per kind of change, as an edit on the Accounts screen makes. */
+/** Writes the row's changes through the Accounts screen's own edit; its audit events also name the teams and the source. */
 async function updateAccount(target: Target, actor: User, transaction: Transaction): Promise<AuditEntry[]> {
   const user = target.existing!
   const changes = target.row.changes ?? {}
-  const events: AuditEntry[] = []
-  const event = (action: string, change: Record<string, unknown>) =>
-    events.push({ actorId: actor.id, action, entityType: 'user', entityId: user.id, changes: { ...change, ...SOURCE } })
-  if (changes.roles) {
-    event('account-roles-changed', { roles: changes.roles })
-    user.roles = target.roles
+  const edit = {
+    roles: changes.roles && target.roles,
+    displayName: changes.displayName && target.displayName,
+    teamIds: changes.teams && target.teams.map((t) => t.id).sort(),
   }
-  if (changes.displayName) {
-    event('account-renamed', { displayName: changes.displayName })
-    user.displayName = target.displayName
-  }
-  await user.save({ transaction })
-  if (changes.teams) {
-    const wanted = target.teams.map((t) => t.id).sort()
-    const current = await MembershipModel.findAll({ where: { userId: user.id }, transaction })
-    const before = current.map((m) => m.teamId).sort()
-    const gone = before.filter((id) => !wanted.includes(id))
-    if (gone.length) await MembershipModel.destroy({ where: { userId: user.id, teamId: { [Op.in]: gone } }, transaction })
-    await MembershipModel.bulkCreate(
-      wanted.filter((id) => !before.includes(id)).map((teamId) => ({ userId: user.id, teamId })),
-      { transaction },
-    )
-    event('account-teams-changed', { teamIds: { from: before, to: wanted }, teams: changes.teams })
-  }
-  return events
+  const made = await applyAccountEdit(user, edit, transaction)
+  return made.map(({ action, changes: change }) => {
+    const teams = action === 'account-teams-changed' ? { teams: changes.teams } : {}
+    return { actorId: actor.id, action, entityType: 'user', entityId: user.id, changes: { ...change, ...teams, ...SOURCE } }
+  })
 }
 
 /**
@@ -254,7 +235,7 @@ async function updateAccount(target: Target, actor: User, transaction: Transacti
  * `roster-import` event with the counts; an import that changes nothing writes nothing at all. The invitation
  * e-mails leave only once the transaction has committed; if anything fails, nothing is written and nothing is sent.
  */
-export async function applyRoster(file: RosterFile, actor: User, invitations: RosterInvitations = {}): Promise<AppliedRoster> {
+export async function applyRoster(file: RosterFile, actor: User, invitations: MailDeps): Promise<AppliedRoster> {
   return writeTransaction(UserModel.sequelize!, async (transaction) => {
     // Checked again inside the transaction: the preview the admin saw may be stale, and the client's copy is not trusted.
     const { preview, targets } = await classify(file, actor, transaction)

@@ -1,6 +1,7 @@
 import { Op, type WhereOptions } from 'sequelize'
 import type { User } from '#shared/schemas/user'
 import { AppError } from '../errors.ts'
+import { isAuthor } from '../exams/exam-rules.ts'
 import { ExamModel, RoundExaminerModel, RoundModel } from '../models/index.ts'
 
 type Where = WhereOptions<ExamModel>
@@ -47,7 +48,7 @@ export const roundBlinded = () =>
  */
 export async function blindedEntryError(user: User, id: string, unblinded: Where | null): Promise<AppError | null> {
   const row = await ExamModel.findByPk(id, { attributes: ['id', 'roundId', 'examinerId'] })
-  if (!row?.roundId || row.examinerId === user.id) return null
+  if (!row?.roundId || isAuthor(row, user)) return null
   const round = await RoundModel.findByPk(row.roundId)
   if (round?.status !== 'open') return null
   if (round.createdBy === user.id) return roundBlinded()

@@ -5,7 +5,7 @@ import type { RoundCreate, RoundDetail, RoundEntry, RoundPerson, RoundResults, R
 import type { User } from '#shared/schemas/user'
 import { audit } from '../audit.ts'
 import { writeTransaction } from '../db/transaction.ts'
-import { AppError } from '../errors.ts'
+import { AppError, invalidInput } from '../errors.ts'
 import { derivePairs } from '../agreement/pair-derivation.ts'
 import { ExamModel, RoundExaminerModel, RoundModel, RoundPatientCodeModel, UserModel } from '../models/index.ts'
 import { currentSettings } from '../settings/settings.service.ts'
@@ -27,7 +27,6 @@ interface Cells {
   drafts: Map<string, ExamModel>
 }
 
-const invalid = (fields: Record<string, string>) => new AppError('invalid-input', 400, 'Some fields need attention', fields)
 const roundNotFound = () => new AppError('round-not-found', 404, 'No such calibration round')
 
 function inTransaction<T>(work: (transaction: Transaction) => Promise<T>): Promise<T> {
@@ -124,7 +123,7 @@ async function checkExaminers(examinerIds: readonly string[]): Promise<void> {
     else if (!rolesOf(user).some((r) => r === 'resident' || r === 'attending'))
       fields[`examinerIds.${i}`] = `${user.displayName} does not record exams: choose residents or attendings`
   })
-  if (Object.keys(fields).length) throw invalid(fields)
+  if (Object.keys(fields).length) throw invalidInput(fields)
 }
 
 /**

@@ -11,8 +11,7 @@ import { deriveAllPairs } from '../agreement/pair-derivation.ts'
 import { audit } from '../audit.ts'
 import { writeTransaction } from '../db/transaction.ts'
 import { AppError } from '../errors.ts'
-import { UserModel } from '../models/index.ts'
-import { SettingsVersionModel, settingsVersions } from './settings.model.ts'
+import { SettingsVersionModel, UserModel } from '../models/index.ts'
 
 export interface SettingsChange {
   before: SettingsVersion
@@ -31,7 +30,7 @@ const present = (row: SettingsVersionModel): SettingsVersion => ({
 })
 
 async function latestRow(transaction?: Transaction): Promise<SettingsVersionModel> {
-  const row = await settingsVersions().findOne({ order: [['version', 'DESC']], transaction })
+  const row = await SettingsVersionModel.findOne({ order: [['version', 'DESC']], transaction })
   if (!row) throw new Error('No settings stored: the settings migration seeds version 1')
   return row
 }
@@ -41,7 +40,7 @@ async function latestRow(transaction?: Transaction): Promise<SettingsVersionMode
  * database once and kept in memory until an admin saves a new version.
  */
 export function currentSettings(): Promise<SettingsVersion> {
-  const sequelize = settingsVersions().sequelize!
+  const sequelize = SettingsVersionModel.sequelize!
   let current = cache.get(sequelize)
   if (!current) {
     current = latestRow().then(present)
@@ -58,7 +57,7 @@ export function onSettingsChange(listener: (change: SettingsChange) => void): vo
 
 /** One stored version; 404 when there is none. */
 export async function settingsVersion(version: number): Promise<SettingsVersion> {
-  const row = await settingsVersions().findByPk(version)
+  const row = await SettingsVersionModel.findByPk(version)
   if (!row) throw new AppError('settings-version-not-found', 404, `There is no settings version ${version}`)
   return present(row)
 }
@@ -69,8 +68,7 @@ export async function settingsVersion(version: number): Promise<SettingsVersion>
  */
 export async function updateSettings(admin: User, input: AppSettingsUpdate): Promise<SettingsVersion> {
   const { baseVersion, ...values } = input
-  const model = settingsVersions()
-  const sequelize = model.sequelize!
+  const sequelize = SettingsVersionModel.sequelize!
   const { saved, change } = await writeTransaction(sequelize, async (transaction) => {
     const latest = await latestRow(transaction)
     const before = present(latest)
@@ -78,7 +76,7 @@ export async function updateSettings(admin: User, input: AppSettingsUpdate): Pro
       throw new AppError('stale-settings', 409, 'Someone saved newer settings after you opened them', undefined, { settings: before })
     const changes = settingsChanges(before.values, values)
     if (!Object.keys(changes).length) return { saved: before, change: null }
-    const row = await model.create({ version: latest.version + 1, values: JSON.stringify(values), changedBy: admin.id, changedAt: new Date() }, { transaction })
+    const row = await SettingsVersionModel.create({ version: latest.version + 1, values: JSON.stringify(values), changedBy: admin.id, changedAt: new Date() }, { transaction })
     if (changes.pairWindowMinutes) await deriveAllPairs({ sequelize, transaction }, values.pairWindowMinutes)
     const version = { from: latest.version, to: row.version }
     await audit({ actorId: admin.id, action: 'settings-update', entityType: 'settings', entityId: String(row.version), changes: { ...changes, version } }, { transaction })
@@ -91,7 +89,7 @@ export async function updateSettings(admin: User, input: AppSettingsUpdate): Pro
 
 /** The latest versions, newest first, each with who saved it and what it changed against the version before. */
 export async function settingsHistory(): Promise<SettingsHistoryEntry[]> {
-  const rows = await settingsVersions().findAll({ order: [['version', 'DESC']], limit: HISTORY_LENGTH + 1 })
+  const rows = await SettingsVersionModel.findAll({ order: [['version', 'DESC']], limit: HISTORY_LENGTH + 1 })
   const authorIds = [...new Set(rows.flatMap((r) => (r.changedBy ? [r.changedBy] : [])))]
   const authors = await UserModel.findAll({ where: { id: { [Op.in]: authorIds } } })
   const names = new Map(authors.map((u) => [u.id, u.displayName]))

@@ -8,18 +8,18 @@ import { AppError } from '../errors.ts'
 import { changesBetween, snapshotOf } from '../exams/exam-changes.ts'
 import { presentOwn } from '../exams/exam-record.ts'
 import { inTransaction } from '../exams/exam-writes.ts'
+import { ATTEMPT_WINDOW_MS } from '../middleware/rate-limit.ts'
 import { AuditEventModel, UserModel } from '../models/index.ts'
 import { checkSubmitted, reviewedRow } from './review-access.ts'
 import { recordSignature } from './signatures.ts'
 
 export const COUNTERSIGN_FAILED = 'exam-countersign-failed'
-// ASVS 2.2.1: the signing password must not be guessable through this door either.
-const FAILURE_WINDOW_MS = 15 * 60 * 1000
+// ASVS 2.2.1: the signing password must not be guessable through this door either; counted over the sign-in window.
 const MAX_FAILURES = 5
 
 /** 21 CFR 11.200(a): every signing is a full authentication, checked by the server at the moment of signing. */
 async function checkPassword(signer: User, examId: string, password: string): Promise<void> {
-  const since = new Date(Date.now() - FAILURE_WINDOW_MS)
+  const since = new Date(Date.now() - ATTEMPT_WINDOW_MS)
   const failures = await AuditEventModel.count({ where: { actorId: signer.id, action: COUNTERSIGN_FAILED, at: { [Op.gte]: since } } })
   if (failures >= MAX_FAILURES) throw new AppError('too-many-attempts', 429, 'Too many wrong passwords; wait 15 minutes before signing')
   const account = await UserModel.findByPk(signer.id)

@@ -3,9 +3,10 @@ import type { Logger } from 'pino'
 import type { Exam } from '#shared/schemas/exam'
 import type { Signature } from '#shared/schemas/signature'
 import type { User } from '#shared/schemas/user'
-import type { Mailer, MailMessage } from '../mail/mailer.ts'
+import type { MailDeps, MailMessage } from '../mail/mailer.ts'
 import { countersignRequested, examCountersigned, examReturned, type ExamRef } from '../mail/templates.ts'
-import { MembershipModel, UserModel } from '../models/index.ts'
+import { UserModel } from '../models/index.ts'
+import { membersOf } from '../users/team-members.ts'
 import { rolesOf } from '../users/users.service.ts'
 
 /** Workflow e-mails, sent after the action committed; a failure is logged and never reaches the caller. */
@@ -15,16 +16,13 @@ export interface Notifier {
   countersigned(exam: Exam, signature: Signature): Promise<void>
 }
 
-export interface NotifierOptions {
-  mailer?: Mailer
+export interface NotifierOptions extends MailDeps {
   log: Logger
-  baseUrl: string
 }
 
 /** E-mail addresses of the team's active attendings, but not the exam's author. */
 async function attendingsOf(teamId: string, exceptId: string): Promise<string[]> {
-  const members = await MembershipModel.findAll({ where: { teamId } })
-  const users = await UserModel.findAll({ where: { id: { [Op.in]: members.map((m) => m.userId) }, active: true } })
+  const users = await UserModel.findAll({ where: { id: { [Op.in]: [...(await membersOf([teamId]))] }, active: true } })
   return users.filter((u) => u.id !== exceptId && rolesOf(u).includes('attending')).map((u) => u.email)
 }
 

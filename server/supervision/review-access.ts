@@ -2,14 +2,16 @@ import type { Transaction } from 'sequelize'
 import type { User } from '#shared/schemas/user'
 import { AppError } from '../errors.ts'
 import { canRead, checkBaseVersion, conflict, examNotFound } from '../exams/exam-writes.ts'
+import { isAuthor } from '../exams/exam-rules.ts'
 import { ExamModel } from '../models/index.ts'
+import { belongsTo } from '../users/team-members.ts'
 
 /** The exam a reviewer may countersign or return: only an attending of the exam's own team, never its author. */
 export async function reviewedRow(reviewer: User, id: string, transaction?: Transaction): Promise<ExamModel> {
   const row = await ExamModel.findByPk(id, { transaction })
   if (!row || !(await canRead(reviewer, id, transaction))) throw examNotFound()
-  if (row.examinerId === reviewer.id) throw new AppError('own-exam', 403, 'Nobody countersigns or returns their own exam')
-  if (!reviewer.roles.includes('attending') || !reviewer.teams.some((t) => t.id === row.teamId))
+  if (isAuthor(row, reviewer)) throw new AppError('own-exam', 403, 'Nobody countersigns or returns their own exam')
+  if (!reviewer.roles.includes('attending') || !belongsTo(reviewer, row.teamId))
     throw new AppError('not-team-attending', 403, 'Only an attending of the exam’s team can countersign or return it')
   return row
 }

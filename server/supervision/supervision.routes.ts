@@ -4,7 +4,7 @@ import { z } from 'zod'
 import { AmendInputSchema, CountersignInputSchema, ReturnInputSchema } from '#shared/schemas/signature'
 import { SignoffQueueQuerySchema } from '#shared/schemas/signoff-queue'
 import { patientCodeMask } from '../exams/exam-access.ts'
-import type { Mailer } from '../mail/mailer.ts'
+import type { MailDeps } from '../mail/mailer.ts'
 import { currentUser, requireRole } from '../middleware/auth.ts'
 import { countersignExam } from './countersign.service.ts'
 import { examHistory, examSignatures } from './exam-records.service.ts'
@@ -12,12 +12,9 @@ import { createNotifier, type Notifier } from './notifications.ts'
 import { amendExam, returnExam } from './review.service.ts'
 import { signoffCount, signoffQueue } from './signoff-queue.service.ts'
 
-export interface SupervisionRouterOptions {
+export interface SupervisionRouterOptions extends MailDeps {
   secret: string
   log: Logger
-  mailer?: Mailer
-  /** Base of links in e-mails; the request's own origin when omitted. */
-  baseUrl: string
 }
 
 /** The workflow notifier; its links point at the configured base (PUBLIC_URL), never at a request's Host header. */

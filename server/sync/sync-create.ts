@@ -5,34 +5,26 @@ import type { SyncChange, SyncResult } from '#shared/schemas/sync'
 import type { User } from '#shared/schemas/user'
 import { auditAll } from '../audit.ts'
 import { changesBetween, snapshotOf } from '../exams/exam-changes.ts'
-import { columnsOf, presentOwn, sameRecord } from '../exams/exam-record.ts'
+import { columnsOf, isRetryOf, presentOwn } from '../exams/exam-record.ts'
+import { authorFieldErrors, isAuthor } from '../exams/exam-rules.ts'
 import { inTransaction } from '../exams/exam-writes.ts'
 import { savedEstimate } from '../exams/saved-estimate.ts'
 import { ExamModel } from '../models/index.ts'
 import { derivePairs } from '../agreement/pair-derivation.ts'
 import { roundFieldErrors } from '../rounds/round-membership.ts'
-import { applied, conflictWith, duplicate, fieldsOf, invalid, rejected } from './sync-results.ts'
-
-const FUTURE_TOLERANCE_MS = 5 * 60 * 1000
-
-/** createExam's rules beyond the schema (own team, server clock), for the batch path that cannot afford a call per row. */
-function authorFieldErrors(author: User, input: ExamInput): Record<string, string> | null {
-  const fields: Record<string, string> = {}
-  if (!author.teams.some((t) => t.id === input.teamId)) fields.teamId = 'Choose one of your own teams'
-  if (new Date(input.examinedAt).getTime() > Date.now() + FUTURE_TOLERANCE_MS) fields.examinedAt = 'The time of the exam cannot be in the future'
-  return Object.keys(fields).length ? fields : null
-}
+import { fieldsOf } from '../errors.ts'
+import { applied, conflictWith, duplicate, invalid, rejected } from './sync-results.ts'
 
 /** The answer for one new exam, or its validated input when it is to be stored. */
 async function decide(author: User, change: SyncChange, row: ExamModel | undefined, transaction: Transaction): Promise<SyncResult | ExamInput> {
   const id = change.exam.id
   const parsed = ExamInputSchema.safeParse(change.exam)
   if (!parsed.success) return rejected(id, invalid(fieldsOf(parsed.error)))
-  if (row && row.examinerId !== author.id) return rejected(id, { code: 'id-taken', message: 'Another exam already has this id' })
-  if (row) return sameRecord(row, parsed.data) ? duplicate(id, row.version) : conflictWith(await presentOwn(row))
+  if (row && !isAuthor(row, author)) return rejected(id, { code: 'id-taken', message: 'Another exam already has this id' })
+  if (row) return isRetryOf(row, author, parsed.data) ? duplicate(id, row.version) : conflictWith(await presentOwn(row))
   // A calibration-round entry must name an open round of the author's, with one of its codes (server/rounds).
   const roundFields = parsed.data.roundId ? await roundFieldErrors(author, parsed.data, null, transaction) : {}
-  const fields = { ...authorFieldErrors(author, parsed.data), ...roundFields }
+  const fields = { ...authorFieldErrors(author, parsed.data, null), ...roundFields }
   return Object.keys(fields).length ? rejected(id, invalid(fields)) : parsed.data
 }
 

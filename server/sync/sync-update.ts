@@ -1,7 +1,7 @@
 import { ExamInputSchema, type ExamInput } from '#shared/schemas/exam'
 import type { SyncChange, SyncResult } from '#shared/schemas/sync'
 import type { User } from '#shared/schemas/user'
-import { sameRecord } from '../exams/exam-record.ts'
+import { isRetryOf } from '../exams/exam-record.ts'
 import { updateExam } from '../exams/exams.service.ts'
 import { ExamModel } from '../models/index.ts'
 import { applied, duplicate, resultOfError, serverCopyOf } from './sync-results.ts'
@@ -9,7 +9,7 @@ import { applied, duplicate, resultOfError, serverCopyOf } from './sync-results.
 /** The author's stored row already holds exactly this content: a retry whose answer was lost. */
 async function duplicateOf(author: User, input: ExamInput): Promise<SyncResult | null> {
   const row = await ExamModel.findByPk(input.id)
-  return row?.examinerId === author.id && sameRecord(row, input) ? duplicate(input.id, row.version) : null
+  return row && isRetryOf(row, author, input) ? duplicate(input.id, row.version) : null
 }
 
 /** A change to an exam the server holds, through the exams service, which checks the base version, the lock and the author. */

@@ -1,23 +1,12 @@
 import { Op } from 'sequelize'
 import type { Role, Team, TeamRef, User } from '#shared/schemas/user'
 import { MembershipModel, TeamModel, UserModel } from '../models/index.ts'
+import { teamIdsOf, teamsOf } from './team-members.ts'
 
 /** The account's roles, as the finder read them from `user_roles`. */
 export function rolesOf(user: UserModel): Role[] {
   if (!user.roles) throw new Error(`The roles of account ${user.id} were not loaded`)
   return user.roles
-}
-
-async function teamsOf(userIds: string[]): Promise<Map<string, TeamRef[]>> {
-  const memberships = await MembershipModel.findAll({ where: { userId: { [Op.in]: userIds } } })
-  const teams = await TeamModel.findAll({ where: { id: { [Op.in]: memberships.map((m) => m.teamId) } } })
-  const byId = new Map(teams.map((t) => [t.id, { id: t.id, name: t.name }]))
-  const result = new Map<string, TeamRef[]>()
-  for (const m of memberships) {
-    const team = byId.get(m.teamId)
-    if (team) result.set(m.userId, [...(result.get(m.userId) ?? []), team])
-  }
-  return result
 }
 
 function toUser(u: UserModel, teams: TeamRef[]): User {
@@ -46,7 +35,7 @@ export async function listUsers(): Promise<User[]> {
 /** Educators and admins see every team; everyone else sees the teams they belong to. */
 export async function listTeamsFor(user: User): Promise<Team[]> {
   const all = user.roles.some((r) => r === 'educator' || r === 'admin')
-  const where = all ? {} : { id: { [Op.in]: user.teams.map((t) => t.id) } }
+  const where = all ? {} : { id: { [Op.in]: teamIdsOf(user) } }
   const teams = await TeamModel.findAll({ where, order: [['name', 'ASC']] })
   const memberships = await MembershipModel.findAll({ where: { teamId: { [Op.in]: teams.map((t) => t.id) } } })
   const users = await UserModel.findAll({ where: { id: { [Op.in]: memberships.map((m) => m.userId) }, active: true } })

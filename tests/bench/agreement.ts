@@ -130,7 +130,7 @@ const timeTrend = (url: string, auth: string) =>
 const dir = mkdtempSync(path.join(tmpdir(), 'plumbline-bench-'))
 const sequelize = openDatabase(path.join(dir, 'bench.sqlite'))
 try {
-  initModels(sequelize)
+  const models = initModels(sequelize)
   await createMigrator(sequelize).up()
   const staff = await makeStaff()
   const seeding = performance.now()
@@ -140,7 +140,7 @@ try {
   await sequelize.transaction((transaction) => deriveAllPairs({ sequelize, transaction }))
   const derived = performance.now() - deriving
   console.log(`Derived ${PAIRS} pairs into an empty table in ${(derived / 1000).toFixed(1)} s (as the migration's backfill does)`)
-  const server = createApp({ secret: SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false , baseUrl: 'https://plumbline.test' }).listen(0, '127.0.0.1')
+  const server = createApp({ sequelize, models, secret: SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false , baseUrl: 'https://plumbline.test' }).listen(0, '127.0.0.1')
   await new Promise((resolve) => server.once('listening', resolve))
   const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
   const auth = `Bearer ${signAccessToken(SECRET, { sub: staff.educator.id, roles: ['educator'] })}`

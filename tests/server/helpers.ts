@@ -18,9 +18,11 @@ let passwordHash: string | undefined
 /** A fresh in-memory database, migrated, and the app built on it. */
 export async function makeTestApp(overrides: Partial<AppDeps> = {}) {
   const sequelize = openDatabase(':memory:')
-  initModels(sequelize)
+  const models = initModels(sequelize)
   await createMigrator(sequelize).up()
   const app = createApp({
+    sequelize,
+    models,
     secret: TEST_SECRET,
     log: pino({ level: 'silent' }),
     demo: false,

@@ -3,8 +3,7 @@ import { rmSync } from 'node:fs'
 import request from 'supertest'
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import { AttachmentListSchema } from '#shared/schemas/attachment'
-import { attachments } from '../../../server/attachments/attachment.model.ts'
-import { AuditEventModel } from '../../../server/models/index.ts'
+import { AttachmentModel, AuditEventModel } from '../../../server/models/index.ts'
 import { recordExam } from '../factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
 import { act, makeWard, SIGN } from '../supervision/ward.ts'
@@ -129,7 +128,7 @@ describe('DELETE /api/attachments/:id', () => {
 
     expect(res.status).toBe(204)
     expect(data.files()).toEqual([])
-    expect((await attachments().findByPk(photo.id))!.deletedAt).not.toBeNull()
+    expect((await AttachmentModel.findByPk(photo.id))!.deletedAt).not.toBeNull()
     expect((await get(`/api/attachments/${photo.id}`, resident.auth)).status).toBe(404)
     expect((await get(`/api/exams/${exam.id}/attachments`, resident.auth)).body.attachments).toEqual([])
     const events = await AuditEventModel.findAll({ where: { entityId: exam.id, action: 'attachment-delete' } })
@@ -159,7 +158,7 @@ describe('DELETE /api/attachments/:id', () => {
     expect(removeAfterAmend.body.error.message).toMatch(/countersigned/)
     expect(addAfterAmend.status).toBe(201)
     expect(data.files()).toHaveLength(4)
-    expect(await attachments().count({ where: { examId: exam.id, deletedAt: null } })).toBe(4)
+    expect(await AttachmentModel.count({ where: { examId: exam.id, deletedAt: null } })).toBe(4)
   })
 
   it('lets only the author remove: the attending gets 403, another team 404', async () => {

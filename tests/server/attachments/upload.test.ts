@@ -5,8 +5,7 @@ import sharp from 'sharp'
 import request from 'supertest'
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import { AttachmentSchema } from '#shared/schemas/attachment'
-import { attachments } from '../../../server/attachments/attachment.model.ts'
-import { AuditEventModel } from '../../../server/models/index.ts'
+import { AttachmentModel, AuditEventModel } from '../../../server/models/index.ts'
 import { recordExam } from '../factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
 import { allowPhotos, GPS_IFD_POINTER, ifd0Tags, makeDataDir, makePhoneJpeg, makePhoto, upload } from './photos.ts'
@@ -31,7 +30,7 @@ async function draftOfResident() {
   return { team, resident, exam }
 }
 
-const rowsOf = (examId: string) => attachments().count({ where: { examId } })
+const rowsOf = (examId: string) => AttachmentModel.count({ where: { examId } })
 
 describe('POST /api/exams/:id/attachments — what is accepted', () => {
   it.each([
@@ -48,7 +47,7 @@ describe('POST /api/exams/:id/attachments — what is accepted', () => {
     expect(res.status).toBe(201)
     const stored = AttachmentSchema.parse(res.body)
     expect(stored).toMatchObject({ examId: exam.id, mimeType: mime, width: 64, height: 48, createdBy: resident.user.id, consentConfirmedBy: resident.user.id })
-    const row = (await attachments().findByPk(stored.id))!
+    const row = (await AttachmentModel.findByPk(stored.id))!
     expect(row.storedName).toMatch(/^[0-9a-f-]{36}\.(jpg|png|webp)$/)
     expect(data.files()).toEqual([row.storedName])
     const onDisk = readFileSync(path.join(data.dir, row.storedName))
@@ -235,7 +234,7 @@ describe('POST /api/exams/:id/attachments — what is stored', () => {
 
     expect(res.status).toBe(201)
     expect(res.body.displayName).toBe('passwd.jpg')
-    const row = (await attachments().findByPk(res.body.id))!
+    const row = (await AttachmentModel.findByPk(res.body.id))!
     expect(row.storedName).toMatch(/^[0-9a-f-]{36}\.jpg$/)
     expect(data.files()).toEqual([row.storedName])
     expect(readdirSync(data.root)).toEqual(['attachments'])

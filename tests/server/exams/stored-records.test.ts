@@ -47,9 +47,9 @@ let app: ReturnType<typeof createApp>
 
 beforeEach(async () => {
   sequelize = openDatabase(':memory:')
-  initModels(sequelize)
+  const models = initModels(sequelize)
   await createMigrator(sequelize).up({ to: BEFORE })
-  app = createApp({ secret: TEST_SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false, baseUrl: 'https://plumbline.test' })
+  app = createApp({ sequelize, models, secret: TEST_SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false, baseUrl: 'https://plumbline.test' })
 })
 
 /** A countersigned exam written as the first release wrote it, with its signature over that content. */

@@ -24,10 +24,11 @@ afterEach(async () => {
 async function appOnFile() {
   dir = mkdtempSync(path.join(tmpdir(), 'plumbline-roster-'))
   sequelize = openDatabase(path.join(dir, 'plumbline.sqlite'))
-  initModels(sequelize)
+  const models = initModels(sequelize)
   await createMigrator(sequelize).up()
   for (const name of SALTMARSH_TEAMS) await makeTeam(name)
-  return createApp({ secret: TEST_SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false , baseUrl: 'https://plumbline.test' })
+  const deps = { sequelize, models, secret: TEST_SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false }
+  return createApp({ ...deps, baseUrl: 'https://plumbline.test' })
 }
 
 describe('roster import: two admins applying the same file at the same moment', () => {

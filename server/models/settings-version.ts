@@ -1,5 +1,4 @@
 import { DataTypes, Model, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
-import { ExamModel } from '../models/index.ts'
 
 /** One version of the settings; rows are only ever added (database triggers refuse changes and deletions). */
 export class SettingsVersionModel extends Model<InferAttributes<SettingsVersionModel>, InferCreationAttributes<SettingsVersionModel>> {
@@ -10,7 +9,7 @@ export class SettingsVersionModel extends Model<InferAttributes<SettingsVersionM
   declare changedAt: Date
 }
 
-function init(sequelize: Sequelize): void {
+export function initSettingsVersionModel(sequelize: Sequelize): void {
   SettingsVersionModel.init(
     {
       version: { type: DataTypes.INTEGER, primaryKey: true },
@@ -20,15 +19,4 @@ function init(sequelize: Sequelize): void {
     },
     { sequelize, tableName: 'settings', timestamps: false },
   )
-}
-
-/**
- * The model, bound to the connection the exam model uses (here rather than in `initModels`, so this folder stays
- * self-contained); rebound when a test opens a new database.
- */
-export function settingsVersions(): typeof SettingsVersionModel {
-  const sequelize = ExamModel.sequelize
-  if (!sequelize) throw new Error('The models are not bound to a database yet')
-  if (SettingsVersionModel.sequelize !== sequelize) init(sequelize)
-  return SettingsVersionModel
 }
