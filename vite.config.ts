@@ -45,18 +45,9 @@ export default defineConfig({
         ignoreURLParametersMatching: [/^utm_/, /^fbclid$/, /^v$/],
         navigateFallback: 'index.html',
         navigateFallbackDenylist: [/^\/api(?:\/|$)/],
-        // Nothing from /api is ever cached: answers carry patient data. The one runtime route is network-only and
-        // only adds Background Sync: a push that fails for want of a network is replayed by the browser when it
-        // returns, even with the app closed. Replays are harmless: pushes are idempotent and the outbox is cleared
-        // only by the app's own acknowledged push. https://developer.chrome.com/docs/workbox/modules/workbox-background-sync
-        runtimeCaching: [
-          {
-            urlPattern: /\/api\/sync\/push$/,
-            method: 'POST',
-            handler: 'NetworkOnly',
-            options: { backgroundSync: { name: 'plumbline-push', options: { maxRetentionTime: 24 * 60 } } },
-          },
-        ],
+        // Nothing from /api is ever cached: answers carry patient data. There is no Background Sync route: the
+        // outbox engine (src/stores/sync.ts) is the one retry path, with its backoff and the `online` event, and it
+        // clears the outbox only on an acknowledged push; a second replay by the browser would only duplicate it.
         // Claiming clients on first install lets lazy route chunks come from the cache during the very first visit.
         clientsClaim: true,
         cleanupOutdatedCaches: true,

@@ -1,16 +1,11 @@
-import type { Options } from 'ky'
 import { z } from 'zod'
 import { AttachmentListSchema, AttachmentSchema } from '#shared/schemas/attachment'
 import { api } from './client'
+import { asAccount } from './token'
 
 // A 5 MB photo over a weak ward signal needs longer than the API's default 10 s.
 const UPLOAD_TIMEOUT_MS = 120_000
 
-/** Sends as the given account (the sync engine's), never as whoever signs in meanwhile; no ky retries. */
-function asAccount(token: string | undefined): Options {
-  if (!token) return { retry: 0 }
-  return { retry: 0, hooks: { beforeRequest: [(request) => request.headers.set('Authorization', `Bearer ${token}`)] } }
-}
 
 export interface PhotoUpload {
   /** The client's id for the photo, so a retried upload stores one photo. */

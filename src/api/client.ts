@@ -1,18 +1,13 @@
 import ky, { isHTTPError } from 'ky'
 import { ApiErrorSchema } from '#shared/schemas/user'
-import { getToken } from './token'
+import { accessToken, authorize } from './token'
 
 export let api = ky.create({
   prefixUrl: '/api/',
   timeout: 10_000,
   credentials: 'same-origin',
   hooks: {
-    beforeRequest: [
-      (request) => {
-        const token = getToken()
-        if (token) request.headers.set('Authorization', `Bearer ${token}`)
-      },
-    ],
+    beforeRequest: [(request) => authorize(request, accessToken.value)],
   },
 })
 

@@ -1,14 +1,6 @@
-import type { Options } from 'ky'
 import { SyncPullResponseSchema, SyncPushResponseSchema, type SyncChangeInput } from '#shared/schemas/sync'
 import { api } from './client'
-
-/**
- * Sends as the account whose outbox this is: the hook runs after the client's own, so a session that changed
- * meanwhile can never lend its token. No ky retries: the sync engine backs off itself.
- */
-function asAccount(token: string): Options {
-  return { retry: 0, hooks: { beforeRequest: [(request) => request.headers.set('Authorization', `Bearer ${token}`)] } }
-}
+import { asAccount } from './token'
 
 export function pushChanges(changes: SyncChangeInput[], token: string) {
   return api

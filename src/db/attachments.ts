@@ -1,3 +1,4 @@
+import { liveQuery } from 'dexie'
 import { ATTACHMENT_MAX_BYTES, ATTACHMENT_MIME_TYPES, ATTACHMENTS_PER_EXAM, type AttachmentMime } from '#shared/schemas/attachment'
 import { readApiError, type ReadableError } from '@/api/client'
 import { uploadAttachment } from '@/api/attachments'
@@ -42,6 +43,12 @@ export function photoProblem(file: Pick<File, 'name' | 'type' | 'size'>): string
 
 export function localAttachmentsOf(examId: string): Promise<LocalAttachment[]> {
   return db.attachments.where('examId').equals(examId).sortBy('createdAt')
+}
+
+/** Calls `next` with the exam's photos waiting on this device now and after every change; answers how to stop. */
+export function watchLocalAttachments(examId: string, next: (rows: LocalAttachment[]) => void): () => void {
+  const subscription = liveQuery(() => localAttachmentsOf(examId)).subscribe({ next, error: () => undefined })
+  return () => subscription.unsubscribe()
 }
 
 export interface AddedPhotos {

@@ -1,28 +1,29 @@
 import { z } from 'zod'
 import type { TeamRef } from '#shared/schemas/user'
-import { defaultOffsetModelInUse } from '@/stores/settings'
 import {
   AWaveSchema,
-  ColumnTopSchema,
   ContextFlagSchema,
-  HeightMethodSchema,
-  InclinationSourceSchema,
+  ExamInputSchema,
   NO_VENOUS_SIGNS,
-  NotAssessableReasonSchema,
-  OffsetModelSchema,
-  ReadingPrecisionSchema,
-  RespiratorySchema,
-  RhythmSchema,
-  VeinSchema,
   VenousSignSchema,
   VenousSignStateSchema,
   VWaveSchema,
   YDescentSchema,
+  type OffsetModel,
 } from '#shared/schemas/exam'
 
 // Rows written by older app versions may hold values this version no longer accepts: drop that one field, keep the rest.
 function maybe<T extends z.ZodType>(schema: T) {
   return schema.optional().catch(undefined)
+}
+
+type Bare<T> = T extends z.ZodDefault<infer Inner> ? Inner : T
+
+/** Each field optional and dropped when unreadable; a draft holds only what was chosen, so no exam defaults. */
+function lenient<S extends Record<string, z.ZodType>>(shape: S) {
+  const bare = (schema: z.ZodType) => (schema instanceof z.ZodDefault ? schema.removeDefault() : schema) as z.ZodType
+  const fields = Object.entries<z.ZodType>(shape).map(([key, schema]) => [key, maybe(bare(schema))])
+  return Object.fromEntries(fields) as { [K in keyof S]: z.ZodCatch<z.ZodOptional<Bare<S[K]>>> }
 }
 
 type SignStates = Partial<Record<z.infer<typeof VenousSignSchema>, z.infer<typeof VenousSignStateSchema>>>
@@ -37,34 +38,29 @@ function readSigns(value: unknown): SignStates {
 const venousSigns = z.union([z.array(z.unknown()), z.record(z.string(), z.unknown())]).transform(readSigns)
 const contextFlags = z.array(z.unknown()).transform((flags) => flags.filter((flag) => ContextFlagSchema.safeParse(flag).success) as z.infer<typeof ContextFlagSchema>[])
 
-/** Every exam field as typed so far: all optional, numbers may be cleared to null. */
-export const DraftFieldsSchema = z.object({
+// The exam's own fields, without the cross-field checks a half-typed exam cannot pass yet (and zod cannot pick from).
+const ExamFieldsSchema = z.object(ExamInputSchema.shape).omit({ id: true, reviewed: true })
+
+/**
+ * Every exam field as typed so far, all optional: the choices as the exam schema has them; text kept as typed and
+ * numbers (clearable to null) kept even out of range, so the step can show the error; the groups field by field.
+ */
+export const DraftFieldsSchema = z.object(lenient(ExamFieldsSchema.shape)).extend({
   patientCode: maybe(z.string()),
-  /** The calibration round the exam is an entry of; null or absent for an ordinary exam. */
   roundId: maybe(z.string().nullable()),
   teamId: maybe(z.string()),
   examinedAt: maybe(z.string()),
+  notes: maybe(z.string()),
+  notAssessableText: maybe(z.string().nullable()),
   inclinationDeg: maybe(z.number().nullable()),
-  inclinationSource: maybe(InclinationSourceSchema),
-  vein: maybe(VeinSchema),
-  venousSigns: maybe(venousSigns),
-  venousConfirmed: maybe(z.boolean()),
-  rhythm: maybe(RhythmSchema),
-  columnTop: maybe(ColumnTopSchema),
-  heightMethod: maybe(HeightMethodSchema),
   heightCm: maybe(z.number().nullable()),
   alongNeckCm: maybe(z.number().nullable()),
-  readingPrecision: maybe(ReadingPrecisionSchema),
-  offsetModel: maybe(OffsetModelSchema),
+  venousSigns: maybe(venousSigns),
+  context: maybe(contextFlags),
   waveform: maybe(z.object({ aWave: maybe(AWaveSchema), vWave: maybe(VWaveSchema), yDescent: maybe(YDescentSchema) })),
-  respiratory: maybe(RespiratorySchema),
   abdominojugular: maybe(
     z.object({ done: maybe(z.boolean()), riseCm: maybe(z.number().nullable()), sustained: maybe(z.boolean()), fallOnReleaseCm: maybe(z.number().nullable()) }),
   ),
-  notAssessableReason: maybe(NotAssessableReasonSchema.nullable()),
-  notAssessableText: maybe(z.string().nullable()),
-  context: maybe(contextFlags),
-  notes: maybe(z.string()),
   // The flow's own answers, never sent: the trunk angle checked after a phone reading, and the inclination at which
   // the examiner, asked to sit the patient up, confirmed the top still above the visible neck.
   inclinationConfirmed: maybe(z.boolean()),
@@ -86,8 +82,8 @@ export const DraftRowSchema = z.object({
 })
 export type DraftRow = z.infer<typeof DraftRowSchema>
 
-/** A new draft with the exam's defaults; the team is preselected when the user has only one. */
-export function newDraft(teams: readonly TeamRef[], now = new Date()): DraftRow {
+/** A new draft with the exam's defaults and the settings' offset model; the team is preselected when the user has only one. */
+export function newDraft(teams: readonly TeamRef[], offsetModel: OffsetModel, now = new Date()): DraftRow {
   const stamp = now.toISOString()
   return {
     id: crypto.randomUUID(),
@@ -103,7 +99,7 @@ export function newDraft(teams: readonly TeamRef[], now = new Date()): DraftRow 
       rhythm: 'unknown',
       heightMethod: 'vertical',
       readingPrecision: 'ruler',
-      offsetModel: defaultOffsetModelInUse(),
+      offsetModel,
       waveform: { aWave: 'unclear', vWave: 'unclear', yDescent: 'unclear' },
       respiratory: 'not-assessed',
       abdominojugular: { done: false },

@@ -1,7 +1,7 @@
 import { computeEstimate } from '#shared/domain/estimate'
-import type { Exam, ExamInput } from '#shared/schemas/exam'
+import type { Exam, ExamInput, ObserverTerm } from '#shared/schemas/exam'
+import type { EstimateSettings } from '#shared/schemas/settings'
 import type { User } from '#shared/schemas/user'
-import { estimateSettingsInUse, observerTermInUse, settingsVersionInUse } from '@/stores/settings'
 import { db } from './index'
 import { cursorKey } from './meta'
 import { queuedFor } from './outbox-queries'
@@ -12,14 +12,17 @@ export function plain<T>(value: T): T {
   return JSON.parse(JSON.stringify(value)) as T
 }
 
+/** What an estimate on this device is computed with: the settings in use, their error term and their version. */
+export type EstimateBasis = { settings: EstimateSettings; observer: ObserverTerm; settingsVersion: number | undefined }
+
 /**
  * The exam as this device shows it until the server's copy arrives: the saved record, estimated offline with the
  * settings and error term in use (those the band was reviewed with).
  */
-export function localExamOf(input: ExamInput, author: User, previous?: LocalExam): LocalExam {
+export function localExamOf(input: ExamInput, author: User, basis: EstimateBasis, previous?: LocalExam): LocalExam {
   const now = new Date().toISOString()
   const { reviewed: _reviewed, ...record } = input
-  const estimate = computeEstimate(input, { settings: estimateSettingsInUse(), observer: observerTermInUse() })
+  const estimate = computeEstimate(input, { settings: basis.settings, observer: basis.observer })
   return {
     ...record,
     examinerId: author.id,
@@ -27,7 +30,7 @@ export function localExamOf(input: ExamInput, author: User, previous?: LocalExam
     teamName: author.teams.find((t) => t.id === input.teamId)?.name ?? previous?.teamName ?? '',
     status: previous?.status ?? 'draft',
     version: previous?.version ?? 0,
-    estimate: { ...estimate, settingsVersion: settingsVersionInUse() },
+    estimate: { ...estimate, settingsVersion: basis.settingsVersion },
     createdAt: previous?.createdAt ?? now,
     updatedAt: now,
     submittedAt: previous?.submittedAt ?? null,

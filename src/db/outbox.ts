@@ -2,7 +2,7 @@ import type { ExamInput } from '#shared/schemas/exam'
 import type { User } from '#shared/schemas/user'
 import type { DraftRow } from './draft-schema'
 import { db } from './index'
-import { localExamOf, plain } from './local-exams'
+import { localExamOf, plain, type EstimateBasis } from './local-exams'
 import type { OutboxItem } from './sync-schema'
 
 const bySeq = (a: OutboxItem, b: OutboxItem) => a.seq - b.seq
@@ -21,13 +21,16 @@ async function enqueue(items: OutboxItem[], payload: ExamInput, authorId: string
   await db.outbox.add({ ...item, attempts: 0, lastError: null, serverCopy: null, queuedAt })
 }
 
-/** Saves an exam for sending, in one transaction: its local copy, the outbox change and the draft marked saved. */
-export async function queueSave(draft: DraftRow, payload: ExamInput, author: User): Promise<void> {
+/**
+ * Saves an exam for sending, in one transaction: its local copy (estimated with `basis`), the outbox change and the
+ * draft marked saved.
+ */
+export async function queueSave(draft: DraftRow, payload: ExamInput, author: User, basis: EstimateBasis): Promise<void> {
   await db.transaction('rw', db.exams, db.outbox, db.drafts, async () => {
     const previous = await db.exams.get(payload.id)
     const items = (await db.outbox.where('examId').equals(payload.id).toArray()).sort(bySeq)
     await enqueue(items, payload, author.id, previous?.version)
-    await db.exams.put(plain(localExamOf(payload, author, previous)))
+    await db.exams.put(plain(localExamOf(payload, author, basis, previous)))
     await db.drafts.put(plain({ ...draft, state: 'saved' as const }))
   })
 }

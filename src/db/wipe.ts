@@ -1,6 +1,9 @@
 import { db } from './index'
 
-/** Where the service worker keeps pushes waiting for Background Sync (workbox-background-sync's own database). */
+/**
+ * Where service workers of earlier app versions kept pushes waiting for Background Sync; nothing replays them now, but
+ * they hold patient data, so sign-out still deletes them.
+ */
 export const BACKGROUND_SYNC_DB = 'workbox-background-sync'
 
 function deleteDatabase(name: string): Promise<void> {

@@ -7,9 +7,10 @@ import { listDrafts, loadDraft, saveDraft } from '@/db/drafts'
 import { draftFromExam } from '@/db/exam-drafts'
 import { loadLocalExam } from '@/db/local-exams'
 import { queueAndSync } from './exam-save'
+import { defaultOffsetModelInUse, estimateBasisInUse } from './settings'
 import { useSessionStore } from './session'
 import { useSyncStore } from './sync'
-import { BEDSIDE_STEPS, draftErrors, errorsToShow, liveEstimate, parseDraft, reviewedBand, stepOfField } from '@/components/bedside/bedside-steps'
+import { BEDSIDE_STEPS, draftErrors, errorsToShow, liveEstimate, parseDraft, reviewedBand, stepOfField } from '@/utils/bedside-steps'
 
 const AUTOSAVE_DELAY_MS = 250
 
@@ -36,7 +37,7 @@ export const useExamDraftStore = defineStore('exam-draft', () => {
 
   const step = computed(() => draft.value?.step ?? 0)
   const errors = computed(() => (draft.value ? draftErrors(draft.value) : {}))
-  const estimate = computed(() => (draft.value ? liveEstimate(draft.value) : null))
+  const estimate = computed(() => (draft.value ? liveEstimate(draft.value, estimateBasisInUse()) : null))
 
   /** Errors to show: typed values at once, empty fields once their step was attempted, and the server's. */
   const visibleErrors = computed(() => ({
@@ -82,7 +83,7 @@ export const useExamDraftStore = defineStore('exam-draft', () => {
   /** Starts a new exam and stores it at once. */
   async function startNew(teams: readonly TeamRef[]) {
     await flush()
-    openRow(newDraft(teams), false)
+    openRow(newDraft(teams, defaultOffsetModelInUse()), false)
     await flush()
   }
 
@@ -146,7 +147,7 @@ export const useExamDraftStore = defineStore('exam-draft', () => {
     const row = draft.value
     if (!row) return { kind: 'failed', message: 'No exam is open.' }
     const parsed = parseDraft(row)
-    const shown = liveEstimate(row)
+    const shown = liveEstimate(row, estimateBasisInUse())
     const input = parsed && shown && !Object.keys(errors.value).length ? { ...parsed, reviewed: reviewedBand(shown) } : null
     if (!input) {
       attemptedSteps.value = BEDSIDE_STEPS.map((_, index) => index)

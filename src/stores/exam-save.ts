@@ -4,6 +4,7 @@ import type { User } from '#shared/schemas/user'
 import type { DraftRow } from '@/db/draft-schema'
 import { outboxOf, queueSave } from '@/db/outbox'
 import { storageProblem } from '@/db/storage-errors'
+import { estimateBasisInUse } from './settings'
 
 /** Where a saved exam stands once the sync that followed the save is over. */
 export type QueuedSave =
@@ -26,7 +27,7 @@ async function standing(examId: string, authorId: string): Promise<QueuedSave> {
  */
 export async function queueAndSync(draft: DraftRow, input: ExamInput, author: User, sync: () => Promise<void>): Promise<QueuedSave> {
   try {
-    await queueSave(draft, input, author)
+    await queueSave(draft, input, author, estimateBasisInUse())
   } catch (e) {
     return { kind: 'not-stored', message: storageProblem(e) }
   }

@@ -3,7 +3,7 @@ import { computed, ref } from 'vue'
 import { isHTTPError } from 'ky'
 import type { LoginInput, Role, User } from '#shared/schemas/user'
 import * as auth from '@/api/auth'
-import { setToken } from '@/api/token'
+import { accessToken } from '@/api/token'
 import { loadProfile, saveProfile } from '@/db/meta'
 import { unsyncedWorkOnDevice } from '@/db/outbox'
 import { wipeLocalData } from '@/db/wipe'
@@ -15,7 +15,7 @@ export type UnsyncedWork = Awaited<ReturnType<typeof unsyncedWorkOnDevice>>
 export const useSessionStore = defineStore('session', () => {
   const user = ref<User | null>(null)
   /** Access token; memory only, the refresh cookie survives reloads instead. */
-  const token = ref<string | null>(null)
+  const token = accessToken
   /** True when the server runs on invented demo data. */
   const demo = ref(false)
   const restored = ref(false)
@@ -26,7 +26,6 @@ export const useSessionStore = defineStore('session', () => {
   function applySession(session: { token: string; user: User } | null) {
     token.value = session?.token ?? null
     user.value = session?.user ?? null
-    setToken(token.value)
     if (session) void saveProfile(session.user).catch(() => undefined)
   }
 

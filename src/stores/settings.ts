@@ -12,6 +12,7 @@ import {
   type SettingsVersion,
 } from '#shared/schemas/settings'
 import { fetchSettings, fetchSettingsHistory, fetchSettingsVersion, saveSettings } from '@/api/settings'
+import type { EstimateBasis } from '@/db/local-exams'
 import { loadSettingsCopy, loadSettingsVersionCopy, saveSettingsCopy, saveSettingsVersionCopy } from '@/db/meta'
 
 // Device-wide, outside any one store instance: the live estimate, the device's copies of saved exams and new drafts
@@ -35,6 +36,11 @@ export function observerTermInUse(): ObserverTerm {
 /** The version of the settings in use; undefined while this device has never received any (it then uses the defaults). */
 export function settingsVersionInUse(): number | undefined {
   return inUse.value?.version
+}
+
+/** What this device estimates with now, as `src/db` takes it: settings, error term and version in use. */
+export function estimateBasisInUse(): EstimateBasis {
+  return { settings: estimateSettingsInUse(), observer: observerTermInUse(), settingsVersion: settingsVersionInUse() }
 }
 
 /** The offset model a new exam starts with. */

@@ -6,6 +6,8 @@ import { outboxCounts } from '@/db/outbox'
 import { useSessionStore } from './session'
 import { syncAs } from './sync-cycle'
 
+// The one retry path for the outbox: backoff after a failure, and a new cycle on the `online` event. The service worker
+// replays nothing itself (no Background Sync), so a push is never sent twice by two engines.
 const RETRY_BASE_MS = 2_000
 const RETRY_CAP_MS = 2 * 60_000
 

@@ -42,3 +42,13 @@ export function isoToDay(iso: string | undefined): string {
   const pad = (n: number) => String(n).padStart(2, '0')
   return `${date.getFullYear()}-${pad(date.getMonth() + 1)}-${pad(date.getDate())}`
 }
+
+/** A date-range filter's days as the `from`/`to` times it sends: the start of the first day, the end of the last. */
+export function dayRange(fromDay: string, toDay: string): { from: string | undefined; to: string | undefined } {
+  return { from: fromDay ? dayStartIso(fromDay) : undefined, to: toDay ? dayEndIso(toDay) : undefined }
+}
+
+/** Why a date range cannot be sent; empty when it can. */
+export function dayRangeProblem(fromDay: string, toDay: string): string {
+  return fromDay && toDay && toDay < fromDay ? 'The end is before the start' : ''
+}

@@ -5,7 +5,6 @@ import { createPinia, setActivePinia, type Pinia } from 'pinia'
 import { createVuetify } from 'vuetify'
 import request from 'supertest'
 import type { User } from '#shared/schemas/user'
-import { setToken } from '@/api/token'
 import { db } from '@/db'
 import AttachmentPicker from '@/components/attachments/AttachmentPicker.vue'
 import { useSessionStore } from '@/stores/session'
@@ -38,7 +37,6 @@ afterAll(async () => {
 
 function signInAs(account: { user: User; token: string }) {
   Object.assign(useSessionStore(), { user: account.user, token: account.token })
-  setToken(account.token)
 }
 
 async function mountPicker(examId: string, editable = true) {

@@ -2,7 +2,7 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import { reactive } from 'vue'
 import { db } from '@/db'
 import { deleteDraft, listDrafts, loadDraft, saveDraft } from '@/db/drafts'
-import { parseDraft } from '@/components/bedside/bedside-steps'
+import { parseDraft } from '@/utils/bedside-steps'
 import { makeDraft, WORKED_EXAMPLE } from '../factories/draft'
 
 describe('drafts in IndexedDB', () => {

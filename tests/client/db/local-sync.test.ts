@@ -101,7 +101,7 @@ describe('exams, conflicts and sync state on this device', () => {
     expect(await loadProfile()).toBeNull()
   })
 
-  it('wiping also deletes the pushes the service worker holds for Background Sync', async () => {
+  it('wiping also deletes the pushes that service workers of earlier versions held for Background Sync', async () => {
     const queue = new Dexie(BACKGROUND_SYNC_DB)
     queue.version(1).stores({ requests: '++id, queueName' })
     await queue.table('requests').add({ queueName: 'plumbline-push', requestData: { url: '/api/sync/push' } })

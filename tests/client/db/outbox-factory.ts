@@ -2,6 +2,7 @@ import { ExamInputSchema, type ExamInput } from '#shared/schemas/exam'
 import type { User } from '#shared/schemas/user'
 import { db } from '@/db'
 import { queueSave } from '@/db/outbox'
+import { estimateBasisInUse } from '@/stores/settings'
 import { makeDraft, WORKED_EXAMPLE } from '../factories/draft'
 import { makeUser } from '../factories/user'
 
@@ -14,7 +15,7 @@ export function examInput(overrides: Partial<ExamInput> = {}): ExamInput {
 
 /** Saves an exam as the bedside flow does, and answers its input. */
 export async function save(input: ExamInput = examInput(), author: User = AUTHOR): Promise<ExamInput> {
-  await queueSave(makeDraft({}, { id: input.id }), input, author)
+  await queueSave(makeDraft({}, { id: input.id }), input, author, estimateBasisInUse())
   return input
 }
 

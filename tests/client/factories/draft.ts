@@ -1,3 +1,4 @@
+import { DEFAULT_APP_SETTINGS } from '#shared/schemas/settings'
 import { ExamFindingsSchema, type ExamFindings, type ExamFindingsInput } from '#shared/schemas/exam'
 import { newDraft, type DraftFields, type DraftRow } from '@/db/draft-schema'
 
@@ -15,7 +16,7 @@ export const WORKED_EXAMPLE: DraftFields = {
 }
 
 export function makeDraft(fields: DraftFields = {}, overrides: Partial<DraftRow> = {}): DraftRow {
-  const row = newDraft([{ id: 't-1', name: 'Cardiology A' }])
+  const row = newDraft([{ id: 't-1', name: 'Cardiology A' }], DEFAULT_APP_SETTINGS.defaultOffsetModel)
   return { ...row, ...overrides, fields: { ...row.fields, ...fields } }
 }
 

@@ -2,12 +2,12 @@ import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { createPinia, setActivePinia } from 'pinia'
 import { DEFAULT_APP_SETTINGS, type AppSettings, type SettingsInForce } from '#shared/schemas/settings'
 import type { ObserverTerm } from '#shared/schemas/exam'
-import { liveEstimate, parseDraft } from '@/components/bedside/bedside-steps'
+import { liveEstimate, parseDraft } from '@/utils/bedside-steps'
 import { db } from '@/db'
-import { newDraft } from '@/db/draft-schema'
 import { localExamOf } from '@/db/local-exams'
 import { loadSettingsCopy, loadSettingsVersionCopy } from '@/db/meta'
-import { estimateSettingsFor, ensureSettingsVersion, useSettingsStore } from '@/stores/settings'
+import { estimateBasisInUse, estimateSettingsFor, ensureSettingsVersion, useSettingsStore } from '@/stores/settings'
+import { useExamDraftStore } from '@/stores/exam-draft'
 import * as api from '@/api/settings'
 import { makeDraft, WORKED_EXAMPLE } from '../factories/draft'
 import { makeUser } from '../factories/user'
@@ -71,7 +71,7 @@ describe('settings store', () => {
   })
 
   it('with nothing received yet, the live estimate uses the cited defaults', () => {
-    const estimate = liveEstimate(makeDraft(WORKED_EXAMPLE))
+    const estimate = liveEstimate(makeDraft(WORKED_EXAMPLE), estimateBasisInUse())
 
     // McGee 1998: elevated above 3 cm; Cook 1990 categories: the band 9.2–18.2 reaches normal (5–10) and high (> 10).
     expect(estimate).toMatchObject({ elevated: true, categories: ['normal', 'high'], observerSource: 'default' })
@@ -82,8 +82,8 @@ describe('settings store', () => {
     await useSettingsStore().load()
     const draft = makeDraft({ ...WORKED_EXAMPLE, offsetModel: 'incline-adjusted' })
 
-    const live = liveEstimate(draft)
-    const copy = localExamOf(parseDraft(draft)!, makeUser())
+    const live = liveEstimate(draft, estimateBasisInUse())
+    const copy = localExamOf(parseDraft(draft)!, makeUser(), estimateBasisInUse())
 
     expect(live).toMatchObject({ elevated: false, settingsVersion: 2 })
     expect(copy.estimate).toMatchObject({ elevated: false, settingsVersion: 2 })
@@ -94,8 +94,8 @@ describe('settings store', () => {
     await useSettingsStore().load()
     const draft = makeDraft(WORKED_EXAMPLE)
 
-    const live = liveEstimate(draft)!
-    const copy = localExamOf(parseDraft(draft)!, makeUser())
+    const live = liveEstimate(draft, estimateBasisInUse())!
+    const copy = localExamOf(parseDraft(draft)!, makeUser(), estimateBasisInUse())
 
     expect(live.observerSource).toBe('local-pairs')
     expect(live.bandCmH2O![0]).toBeCloseTo(13.7 - 1.96 * Math.hypot(1.2, 1.0), 5)
@@ -113,7 +113,7 @@ describe('settings store', () => {
     await useSettingsStore().load()
 
     expect(useSettingsStore().current?.observerTerm).toEqual(LOCAL_TERM)
-    expect(liveEstimate(makeDraft(WORKED_EXAMPLE))?.observerSource).toBe('local-pairs')
+    expect(liveEstimate(makeDraft(WORKED_EXAMPLE), estimateBasisInUse())?.observerSource).toBe('local-pairs')
   })
 
   it('a copy kept by the previous app version, without an error term, reads as the default term of its settings', async () => {
@@ -129,9 +129,12 @@ describe('settings store', () => {
   it('a new draft starts with the default offset model of the settings', async () => {
     vi.mocked(api.fetchSettings).mockResolvedValue(RAISED)
 
-    const before = newDraft([]).fields.offsetModel
+    const drafts = useExamDraftStore()
+    await drafts.startNew([])
+    const before = drafts.draft?.fields.offsetModel
     await useSettingsStore().load()
-    const after = newDraft([]).fields.offsetModel
+    await drafts.startNew([])
+    const after = drafts.draft?.fields.offsetModel
 
     expect(before).toBe('incline-adjusted')
     expect(after).toBe('fixed-5cm')

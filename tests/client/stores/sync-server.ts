@@ -7,6 +7,7 @@ import { makeExamInput } from '../../server/factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../../server/helpers.ts'
 import { configureApiBase } from '@/api/client'
 import { queueSave } from '@/db/outbox'
+import { estimateBasisInUse } from '@/stores/settings'
 import { makeDraft } from '../factories/draft'
 
 /** Faults the next pushes meet before they reach the real API. */
@@ -60,6 +61,6 @@ export async function makeAccount(): Promise<{ user: User; token: string }> {
 /** Saves an exam on this device for the user, as the bedside flow does: local copy, outbox change and draft together. */
 export async function saveOffline(user: User, overrides: Partial<ExamInputRaw> = {}): Promise<ExamInput> {
   const input = ExamInputSchema.parse(makeExamInput({ teamId: user.teams[0]!.id, ...overrides }))
-  await queueSave(makeDraft({}, { id: input.id }), input, user)
+  await queueSave(makeDraft({}, { id: input.id }), input, user, estimateBasisInUse())
   return input
 }

@@ -9,7 +9,7 @@ import { CAUTION_TEXT } from '#shared/domain/interpretation'
 import type { Sequelize } from 'sequelize'
 import ExamExportMenu from '@/components/exam/ExamExportMenu.vue'
 import { configureApiBase } from '@/api/client'
-import { setToken } from '@/api/token'
+import { accessToken } from '@/api/token'
 import { makeExamInput } from '../../../server/factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../../../server/helpers.ts'
 
@@ -54,7 +54,7 @@ async function residentWithExams(patientCodes: string[]) {
     const res = await request(app).post('/api/exams').set('Authorization', resident.auth).send(makeExamInput({ teamId: team.id, patientCode }))
     ids.push(res.body.id)
   }
-  setToken(resident.auth.slice('Bearer '.length))
+  accessToken.value = resident.auth.slice('Bearer '.length)
   return { ids }
 }
 
@@ -66,7 +66,7 @@ describe('ExamExportMenu', () => {
   afterEach(() => {
     vi.restoreAllMocks()
     document.body.innerHTML = ''
-    setToken(null)
+    accessToken.value = null
   })
 
   it('downloads the exam as a FHIR R4 Bundle with the bearer token and saves it as a .fhir.json file', async () => {

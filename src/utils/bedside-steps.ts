@@ -1,7 +1,7 @@
 import { ExamFindingsSchema, ExamFindingsShape, ExamInputSchema, type EstimateV2, type ExamFindings, type ExamInput, type ReviewedBand } from '#shared/schemas/exam'
 import { computeEstimate } from '#shared/domain/estimate'
 import type { DraftFields, DraftRow } from '@/db/draft-schema'
-import { estimateSettingsInUse, observerTermInUse, settingsVersionInUse } from '@/stores/settings'
+import type { EstimateBasis } from '@/db/local-exams'
 import { flowErrors } from './bedside-checks'
 import { draftInput } from './bedside-input'
 
@@ -91,11 +91,11 @@ export function draftFindings(row: Pick<DraftRow, 'id' | 'fields'>): ExamFinding
  * The live estimate of a draft with the settings and the error term the server uses now (so the band reviewed here is
  * the band it stores), or null while the findings are incomplete.
  */
-export function liveEstimate(row: Pick<DraftRow, 'id' | 'fields'>): EstimateV2 | null {
+export function liveEstimate(row: Pick<DraftRow, 'id' | 'fields'>, basis: EstimateBasis): EstimateV2 | null {
   const findings = draftFindings(row)
   if (!findings) return null
-  const estimate = computeEstimate(findings, { settings: estimateSettingsInUse(), observer: observerTermInUse() })
-  const settingsVersion = settingsVersionInUse()
+  const estimate = computeEstimate(findings, { settings: basis.settings, observer: basis.observer })
+  const { settingsVersion } = basis
   return settingsVersion === undefined ? estimate : { ...estimate, settingsVersion }
 }
 
