@@ -1,5 +1,7 @@
 // Pushes 2,000 exams from an outbox (fake-indexeddb in Node) to the real server in its own process, over loopback.
 // Prints exams per second end to end and the server's peak RSS. Run: npm run bench:sync
+import { DEFAULT_ESTIMATE_SETTINGS } from '#shared/schemas/settings'
+import { defaultObserverTerm } from '#shared/domain/estimate'
 import 'fake-indexeddb/auto'
 import { spawn } from 'node:child_process'
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs'
@@ -45,10 +47,13 @@ async function signIn(url: string) {
   return SessionSchema.parse(await response.json())
 }
 
+// The bench measures sync throughput, not the band: every exam is estimated with the default settings and error term.
+const BASIS = { settings: DEFAULT_ESTIMATE_SETTINGS, observer: defaultObserverTerm(DEFAULT_ESTIMATE_SETTINGS), settingsVersion: undefined }
+
 async function fillOutbox(session: Awaited<ReturnType<typeof signIn>>) {
   const teamId = session.user.teams[0]!.id
   for (let i = 0; i < EXAMS; i++) {
-    const draft = newDraft(session.user.teams)
+    const draft = newDraft(session.user.teams, 'incline-adjusted')
     const input = ExamInputSchema.parse({
       ...draft.fields,
       id: draft.id,
@@ -59,7 +64,7 @@ async function fillOutbox(session: Awaited<ReturnType<typeof signIn>>) {
       heightCm: (i % 12) - 2,
       notes: 'Recorded offline on the ward',
     })
-    await queueSave(draft, input, session.user)
+    await queueSave(draft, input, session.user, BASIS)
   }
 }
 
