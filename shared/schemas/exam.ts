@@ -269,9 +269,8 @@ export const ObserverTermSchema = z.object({
 })
 export type ObserverTerm = z.infer<typeof ObserverTermSchema>
 
-/** The estimate as the current rules compute it (version 2). */
-export const EstimateSchema = z.object({
-  rulesVersion: z.literal(2),
+/** The fields both rules versions store alike: the numbers, the bound and the statements' common parts. */
+const estimateCore = {
   cvpCmH2O: z.number().nullable(),
   cvpMmHg: z.number().nullable(),
   bandCmH2O: bandSchema,
@@ -282,24 +281,31 @@ export const EstimateSchema = z.object({
   sigmaCm: z.number().nullable(),
   bound: BoundSchema,
   elevated: z.boolean().nullable(),
+  confidence: ConfidenceSchema.nullable(),
+  outsideStudiedRange: z.boolean(),
+  venousSignCount: z.number().int(),
+  caution: z.string(),
+  /** The settings version whose thresholds and error terms the server used; absent before versioned settings (= version 1). */
+  settingsVersion: z.number().int().min(1).optional(),
+}
+
+/** The estimate as the current rules compute it (version 2). */
+export const EstimateSchema = z.object({
+  ...estimateCore,
+  rulesVersion: z.literal(2),
   /** The categories the 95% band (or the bound) reaches, low to high; empty without an estimate. */
   categories: z.array(CvpCategorySchema),
-  confidence: ConfidenceSchema.nullable(),
   /** 5 cm minus the CT-derived offset at this inclination: how far the classical convention sits from it. */
   conventionDiffCm: z.number().nullable(),
   observerSource: ObserverSourceSchema,
   observerSigmaCm: z.number().nullable(),
   observerN: z.number().int().nullable(),
   observerSigmaCi: z.tuple([z.number(), z.number()]).nullable(),
-  outsideStudiedRange: z.boolean(),
   arterialEvidence: z.boolean(),
   /** Venous signs present, counting the rhythm-expected absences as not against the vein. */
   venousSignCount: z.number().int(),
   cautions: z.array(CautionSchema),
   prompts: z.array(PromptSchema),
-  caution: z.string(),
-  /** The settings version whose thresholds and error terms the server used; absent before versioned settings (= version 1). */
-  settingsVersion: z.number().int().min(1).optional(),
   /** Set by the server when the band the examiner reviewed differs from the one it stored (the error term changed in between). */
   reviewed: ReviewedBandSchema.nullish(),
 })
@@ -309,25 +315,11 @@ export const LegacyHintSchema = z.object({ code: z.string(), finding: z.string()
 
 /** An estimate stored under the first rules: one category from the point value, hints, a soft venous-sign warning. */
 export const LegacyEstimateSchema = z.object({
-  cvpCmH2O: z.number().nullable(),
-  cvpMmHg: z.number().nullable(),
-  bandCmH2O: bandSchema,
-  bandMmHg: bandSchema,
-  offsetCm: z.number(),
-  offsetModel: OffsetModelSchema,
-  heightCm: z.number().nullable(),
-  sigmaCm: z.number().nullable(),
-  bound: BoundSchema,
-  elevated: z.boolean().nullable(),
+  ...estimateCore,
   category: CvpCategorySchema.nullable(),
-  confidence: ConfidenceSchema.nullable(),
   observerSource: z.enum(['default', 'local']),
-  outsideStudiedRange: z.boolean(),
-  venousSignCount: z.number().int(),
   mayBeArterial: z.boolean(),
   hints: z.array(LegacyHintSchema),
-  caution: z.string(),
-  settingsVersion: z.number().int().min(1).optional(),
 })
 export type LegacyEstimate = z.infer<typeof LegacyEstimateSchema>
 
