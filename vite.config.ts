@@ -1,12 +1,37 @@
-import { fileURLToPath, URL } from 'node:url'
-import { defineConfig } from 'vitest/config'
+import { readFileSync } from 'node:fs'
+import path from 'node:path'
+import { fileURLToPath, pathToFileURL, URL } from 'node:url'
+import type { Plugin, UserConfig } from 'vite'
+import { defineConfig, type ViteUserConfig } from 'vitest/config'
 import vue from '@vitejs/plugin-vue'
 import vuetify from 'vite-plugin-vuetify'
 import { VitePWA } from 'vite-plugin-pwa'
 
 const apiTarget = `http://localhost:${process.env.PORT ?? 3000}`
 
-export default defineConfig({
+/** Files the server reads beside its own module (`new URL('./file', import.meta.url)`) go beside the bundle too. */
+function besideTheBundle(): Plugin {
+  return {
+    name: 'plumbline:files-beside-the-bundle',
+    enforce: 'pre',
+    transform(code, id) {
+      for (const [, relative] of code.matchAll(/new URL\(['"](\.\/[^'"]+)['"], import\.meta\.url\)/g)) {
+        this.emitFile({ type: 'asset', fileName: path.basename(relative!), source: readFileSync(new URL(relative!, pathToFileURL(id))) })
+      }
+      return null
+    },
+  }
+}
+
+// `vite build --ssr`: the server and shared/ as one ES module for plain `node` (tsx stays a development tool). Packages
+// stay imports, so `npm ci --omit=dev` provides them; `#shared/*` and the .ts extensions are resolved here.
+const serverBuild: UserConfig = {
+  publicDir: false,
+  plugins: [besideTheBundle()],
+  build: { outDir: 'dist/server', emptyOutDir: true, target: 'node20', sourcemap: true, ssrEmitAssets: true },
+}
+
+const app: ViteUserConfig = {
   plugins: [
     vue(),
     vuetify({ autoImport: true }),
@@ -61,28 +86,52 @@ export default defineConfig({
     proxy: { '/api': apiTarget },
   },
   build: {
+    outDir: 'dist/client',
     chunkSizeWarningLimit: 600,
-    // dist/.vite/manifest.json maps entries to chunks for `npm run bench:bundle`
+    // dist/client/.vite/manifest.json maps entries to chunks for `npm run bench:bundle`
     manifest: true,
   },
   test: {
+    // bcrypt at the production work factor costs ~0.7 s per hash in pure JS; config.ts allows less only under NODE_ENV=test.
+    env: { BCRYPT_COST: '5' },
+    // Browser tests mostly wait (for Chromium, the service worker, the sync engine's retries), so a third worker
+    // keeps both cores busy; every project shares these workers.
+    maxWorkers: 3,
     projects: [
       {
         extends: true,
-        test: { name: 'shared', environment: 'node', include: ['tests/shared/**/*.test.ts'] },
+        // Pure functions: nothing to isolate, so one worker runs every file.
+        test: { name: 'shared', environment: 'node', include: ['tests/shared/**/*.test.ts'], isolate: false },
       },
       {
         extends: true,
-        test: { name: 'server', environment: 'node', include: ['tests/server/**/*.test.ts'], testTimeout: 20_000 },
+        test: {
+          name: 'server',
+          environment: 'node',
+          include: ['tests/server/**/*.test.ts'],
+          globalSetup: ['tests/server/template-database.ts'],
+          // A worker per file would import Express, Sequelize and sharp again each time; see tests/server/fresh-modules.ts.
+          isolate: false,
+          setupFiles: ['tests/server/fresh-modules.ts'],
+          testTimeout: 20_000,
+        },
       },
       {
         extends: true,
+        // Dexie's package entry wraps its UMD build, which Node would load once per worker; its ES build is loaded
+        // afresh for each file (see `inline` below), as it notes the global Blob class and IndexedDB when it loads.
+        resolve: { alias: [{ find: /^dexie$/, replacement: 'dexie/dist/dexie.mjs' }] },
         test: {
           name: 'client',
           environment: 'jsdom',
           include: ['tests/client/**/*.test.ts'],
           setupFiles: ['tests/setup.ts'],
-          server: { deps: { inline: ['vuetify'] } },
+          globalSetup: ['tests/server/template-database.ts'],
+          // One jsdom window per worker instead of per file; tests/setup.ts gives each file a clean slate.
+          isolate: false,
+          // Mounting a view loads its lazy pieces on first use; a shared, busy machine can take seconds for that.
+          testTimeout: 15_000,
+          server: { deps: { inline: ['vuetify', 'dexie'] } },
         },
       },
       {
@@ -91,11 +140,16 @@ export default defineConfig({
           name: 'e2e',
           environment: 'node',
           include: ['tests/e2e/**/*.test.ts'],
+          // Each file runs in its own worker with its own server, data folder and Chromium.
+          globalSetup: ['tests/e2e/demo-template.ts'],
           testTimeout: 90_000,
           hookTimeout: 90_000,
-          fileParallelism: false,
+          // expect.poll waits for the page, which on a busy machine takes more than the default second.
+          expect: { poll: { timeout: 15_000 } },
         },
       },
     ],
   },
-})
+}
+
+export default defineConfig(({ isSsrBuild }) => (isSsrBuild ? serverBuild : app))

@@ -15,8 +15,13 @@ import { createLogger } from './logger.ts'
 import { startFakeSmtp } from './mail/fake-smtp.ts'
 import { createMailer } from './mail/mailer.ts'
 import { initModels } from './models/index.ts'
+import { closeGracefully } from './shutdown.ts'
 
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..')
+/** The folder holding package.json: the repository, or where a production build was copied and installed. */
+function packageRoot(dir = path.dirname(fileURLToPath(import.meta.url))): string {
+  if (existsSync(path.join(dir, 'package.json')) || path.dirname(dir) === dir) return dir
+  return packageRoot(path.dirname(dir))
+}
 
 function jwtSecret(config: Config): string {
   if (config.JWT_SECRET) return config.JWT_SECRET
@@ -64,7 +69,8 @@ export async function startServer(config: Config): Promise<RunningServer> {
     log,
     demo: config.DEMO,
     cookieSecure: config.COOKIE_SECURE,
-    clientDir: path.join(root, 'dist'),
+    // The same folder whether this runs from source (tsx) or as the bundle in dist/server.
+    clientDir: path.join(packageRoot(), 'dist', 'client'),
     mailer,
     mailbox: fakeSmtp,
     baseUrl: config.PUBLIC_URL ?? url,
@@ -76,8 +82,7 @@ export async function startServer(config: Config): Promise<RunningServer> {
   return {
     url,
     close: async () => {
-      server.closeAllConnections()
-      await new Promise<void>((resolve) => server.close(() => resolve()))
+      await closeGracefully(server, config.SHUTDOWN_GRACE_MS)
       await Promise.race([mailer.idle(), delay(5_000, undefined, { ref: false })])
       mailer.close()
       await fakeSmtp?.close()
@@ -86,16 +91,21 @@ export async function startServer(config: Config): Promise<RunningServer> {
   }
 }
 
-/** Entry point of `npm start` and `tsx server/index.ts`. */
+/** Entry point of `npm run serve` (the bundle in dist/server) and `tsx server/index.ts`. */
 export async function main() {
   const running = await startServer(loadConfig())
   console.log(`Plumbline is running at ${running.url}`)
-  const stop = async () => {
+  // Requests in flight finish, then the database closes; a second signal stops at once.
+  let stopping = false
+  const stop = async (signal: NodeJS.Signals) => {
+    if (stopping) process.exit(1)
+    stopping = true
+    console.log(`${signal}: finishing the requests in flight`)
     await running.close()
     process.exit(0)
   }
-  process.once('SIGTERM', stop)
-  process.once('SIGINT', stop)
+  process.on('SIGTERM', stop)
+  process.on('SIGINT', stop)
 }
 
 if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url)) await main()

@@ -1,7 +1,8 @@
 import bcrypt from 'bcryptjs'
+import { bcryptCost } from '../config.ts'
 
-/** OWASP ASVS 4.0.3 2.4.4: a bcrypt work factor as large as the server allows, at least 10; 13 is a product default. */
-export const BCRYPT_COST = 13
+/** OWASP ASVS 4.0.3 2.4.4: a work factor of at least 10; 13 is a product default (`BCRYPT_COST` may raise it; only the test runner may lower it). */
+export const BCRYPT_COST = bcryptCost()
 
 export function hashPassword(password: string): Promise<string> {
   return bcrypt.hash(password, BCRYPT_COST)
@@ -17,4 +18,5 @@ export function needsRehash(hash: string): boolean {
   return bcrypt.getRounds(hash) < BCRYPT_COST
 }
 
-const DUMMY_HASH = '$2b$13$4Vr2Mui07XfRkdCL3J4pneSotfztWUsMwcBkebEpkRsATHc3PH0Di'
+const COST_13_DUMMY_HASH = '$2b$13$4Vr2Mui07XfRkdCL3J4pneSotfztWUsMwcBkebEpkRsATHc3PH0Di'
+const DUMMY_HASH = BCRYPT_COST === 13 ? COST_13_DUMMY_HASH : bcrypt.hashSync('no account has this password', BCRYPT_COST)

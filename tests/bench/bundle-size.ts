@@ -15,7 +15,7 @@ interface ManifestChunk {
 type Manifest = Record<string, ManifestChunk>
 
 const FIRST_VISIT_JS_BUDGET_KB = 250
-const dist = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../dist')
+const dist = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../dist/client')
 const manifestPath = path.join(dist, '.vite', 'manifest.json')
 
 function gzipKb(file: string): number {

@@ -1,16 +1,27 @@
-import { mkdtempSync, rmSync } from 'node:fs'
+import { copyFileSync, mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import path from 'node:path'
 import { chromium, type Browser, type Page } from 'playwright-core'
-import { afterAll, beforeAll } from 'vitest'
+import { afterAll, beforeAll, inject } from 'vitest'
 import { loadConfig } from '../../server/config.ts'
 import { startServer, type RunningServer } from '../../server/index.ts'
 
 export const DEMO_PASSWORD = 'bedside-demo'
 
+/**
+ * A temporary data folder holding a copy of the run's migrated and seeded database (tests/e2e/demo-template.ts), so a
+ * server starting on it finds nothing left to migrate or seed; without the template, the server does both itself.
+ */
+export function demoDataDir(prefix = 'plumbline-e2e-'): string {
+  const dataDir = mkdtempSync(path.join(tmpdir(), prefix))
+  const template = inject('demoDatabase')
+  if (template) copyFileSync(template, path.join(dataDir, 'plumbline.sqlite'))
+  return dataDir
+}
+
 /** The real server (built client, SQLite file in a temporary folder, demo data) on a free port. */
 export async function startDemoServer(): Promise<RunningServer & { dataDir: string }> {
-  const dataDir = mkdtempSync(path.join(tmpdir(), 'plumbline-e2e-'))
+  const dataDir = demoDataDir()
   const running = await startServer(loadConfig({ PORT: '0', DATA_DIR: dataDir, DEMO: 'true', LOG_LEVEL: 'silent' }))
   return {
     ...running,

@@ -1,10 +1,9 @@
-import { mkdtempSync, rmSync } from 'node:fs'
-import { tmpdir } from 'node:os'
-import path from 'node:path'
+import { rmSync } from 'node:fs'
 import type { Page } from 'playwright-core'
 import { expect } from 'vitest'
 import { loadConfig } from '../../server/config.ts'
 import { startServer, type RunningServer } from '../../server/index.ts'
+import { demoDataDir } from './browser.ts'
 
 // Sign-in hashes a password and the first visit loads lazy chunks: allow more than expect.poll's 1 s.
 export const WAIT = { timeout: 15_000 }
@@ -13,8 +12,10 @@ export const SYNC_WAIT = { timeout: 60_000, interval: 500 }
 
 /** A server that can be stopped and started again on the same port and data folder, like a crashed and restarted one. */
 export async function restartableServer() {
-  const dataDir = mkdtempSync(path.join(tmpdir(), 'plumbline-e2e-sync-'))
-  const start = (port: number) => startServer(loadConfig({ PORT: String(port), DATA_DIR: dataDir, DEMO: 'true', LOG_LEVEL: 'silent' }))
+  const dataDir = demoDataDir('plumbline-e2e-sync-')
+  // No grace period on stop: requests in flight are cut, as by a crash.
+  const env = { DATA_DIR: dataDir, DEMO: 'true', LOG_LEVEL: 'silent', SHUTDOWN_GRACE_MS: '0' }
+  const start = (port: number) => startServer(loadConfig({ ...env, PORT: String(port) }))
   let running: RunningServer | null = await start(0)
   const port = Number(new URL(running.url).port)
   return {

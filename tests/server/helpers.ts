@@ -1,7 +1,10 @@
 import { randomUUID } from 'node:crypto'
 import bcrypt from 'bcryptjs'
 import { pino } from 'pino'
+import type { Database } from 'sqlite3'
+import type { Sequelize } from 'sequelize'
 import request from 'supertest'
+import { inject } from 'vitest'
 import type { Role } from '#shared/schemas/user'
 import { createApp, type AppDeps } from '../../server/app.ts'
 import { BCRYPT_COST } from '../../server/auth/passwords.ts'
@@ -10,16 +13,60 @@ import { createMigrator } from '../../server/db/migrator.ts'
 import { openDatabase } from '../../server/db/sequelize.ts'
 import { initModels, MembershipModel, TeamModel, UserModel } from '../../server/models/index.ts'
 
+declare module 'vitest' {
+  export interface ProvidedContext {
+    /** A SQLite file with every migration applied (tests/server/template-database.ts), copied into each test's database. */
+    templateDatabase: string
+  }
+}
+
 export const TEST_SECRET = 'test-secret-'.padEnd(64, 'x')
 export const PASSWORD = 'correct-horse-battery'
-// Hashed once per file: each bcrypt hash at the production cost takes a few hundred milliseconds.
+// Hashed once per file, even at the test runner's low work factor.
 let passwordHash: string | undefined
+
+/** Copies the migrated template (tests/server/template-database.ts) into the in-memory database; sqlite3's online backup API. */
+function restoreTemplate(sequelize: Sequelize, template: string): Promise<void> {
+  const connections = sequelize.connectionManager as unknown as { getConnection(options: object): Promise<Database & BackupApi> }
+  return connections.getConnection({}).then(
+    (db) =>
+      new Promise((resolve, reject) => {
+        const backup = db.backup(template, 'main', 'main', false, (err) => err && reject(err))
+        backup.step(-1, (err) => (backup.finish(), err ? reject(err) : resolve()))
+      }),
+  )
+}
+
+type Done = (err: Error | null) => void
+
+/** node-sqlite3's Database#backup, which its type declarations leave out; `fileIsDestination: false` restores from the file. */
+interface BackupApi {
+  backup(file: string, destName: string, sourceName: string, fileIsDestination: boolean, done: Done): Backup
+}
+
+interface Backup {
+  step(pages: number, done: Done): void
+  finish(): void
+}
+
+/** A fresh in-memory database with every migration applied (from the run's template when there is one) and its models. */
+export async function openTestDatabaseWithModels() {
+  const sequelize = openDatabase(':memory:')
+  const models = initModels(sequelize)
+  const template = inject('templateDatabase')
+  if (template) await restoreTemplate(sequelize, template)
+  else await createMigrator(sequelize).up()
+  return { sequelize, models }
+}
+
+/** A fresh in-memory database with every migration applied, from the run's template when there is one. */
+export async function openTestDatabase(): Promise<Sequelize> {
+  return (await openTestDatabaseWithModels()).sequelize
+}
 
 /** A fresh in-memory database, migrated, and the app built on it. */
 export async function makeTestApp(overrides: Partial<AppDeps> = {}) {
-  const sequelize = openDatabase(':memory:')
-  const models = initModels(sequelize)
-  await createMigrator(sequelize).up()
+  const { sequelize, models } = await openTestDatabaseWithModels()
   const app = createApp({
     sequelize,
     models,

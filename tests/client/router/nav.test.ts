@@ -1,6 +1,6 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { defineComponent, h } from 'vue'
-import { mount, type VueWrapper } from '@vue/test-utils'
+import { flushPromises, mount, type VueWrapper } from '@vue/test-utils'
 import { createPinia, setActivePinia } from 'pinia'
 import { createMemoryHistory, createRouter } from 'vue-router'
 import { createVuetify } from 'vuetify'
@@ -97,10 +97,12 @@ describe('navigation by role', () => {
   })
 
   it('the drawer does not ask a resident for a sign-off count', async () => {
-    vi.mocked(supervision.fetchSignoffCount).mockClear()
+    vi.mocked(supervision.fetchSignoffCount).mockClear().mockResolvedValue(4)
+    // Loaded beforehand, so a badge the drawer did render would mount, and ask, within the flush below.
+    await import('@/components/supervision/SupervisionCountBadge.vue')
 
     mountDrawerFor(['resident'])
-    await new Promise((resolve) => setTimeout(resolve, 50))
+    await flushPromises()
 
     expect(supervision.fetchSignoffCount).not.toHaveBeenCalled()
   })

@@ -46,6 +46,7 @@ describe('exam draft store', () => {
   })
 
   afterEach(() => {
+    vi.useRealTimers()
     useSyncStore().stop()
   })
 
@@ -70,11 +71,14 @@ describe('exam draft store', () => {
   it('autosaves a change to IndexedDB within 300 ms', async () => {
     const store = useExamDraftStore()
     await store.startNew(TEAMS)
+    vi.useFakeTimers({ toFake: ['setTimeout', 'clearTimeout'] })
 
     store.update({ patientCode: 'SM-0142' })
-    await new Promise((resolve) => setTimeout(resolve, 300))
+    await vi.advanceTimersByTimeAsync(300)
+    // A save still waiting on the fake clock now never runs.
+    vi.useRealTimers()
 
-    expect((await loadDraft(store.draft!.id))?.fields.patientCode).toBe('SM-0142')
+    await expect.poll(async () => (await loadDraft(store.draft!.id))?.fields.patientCode).toBe('SM-0142')
   })
 
   it('after the app restarts, resumes the latest unsaved draft with its step', async () => {

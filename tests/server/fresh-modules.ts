@@ -1,0 +1,6 @@
+import { vi } from 'vitest'
+
+// The server project runs with `isolate: false`: one worker keeps the packages it has imported (Express, Sequelize,
+// sharp…), which is most of a file's start-up. Our own modules are evaluated afresh for every file, as isolation
+// would, so module-level state (caches, counters) never carries over from one file to the next.
+vi.resetModules()
