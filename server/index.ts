@@ -4,18 +4,17 @@ import { createServer } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import path from 'node:path'
 import { fileURLToPath } from 'node:url'
-import { setTimeout as delay } from 'node:timers/promises'
 import { observerTerm } from './agreement/observer-term.ts'
 import { createApp } from './app.ts'
 import { loadConfig, type Config } from './config.ts'
 import { createMigrator } from './db/migrator.ts'
-import { openDatabase } from './db/sequelize.ts'
+import { databaseFile, journalMode, openDatabase } from './db/sequelize.ts'
 import { seedDemo } from './demo/seed.ts'
 import { createLogger } from './logger.ts'
 import { startFakeSmtp } from './mail/fake-smtp.ts'
 import { createMailer } from './mail/mailer.ts'
 import { initModels } from './models/index.ts'
-import { closeGracefully } from './shutdown.ts'
+import { shutDown } from './shutdown.ts'
 
 /** The folder holding package.json: the repository, or where a production build was copied and installed. */
 function packageRoot(dir = path.dirname(fileURLToPath(import.meta.url))): string {
@@ -39,8 +38,11 @@ export interface RunningServer {
 export async function startServer(config: Config): Promise<RunningServer> {
   const log = createLogger(config.LOG_LEVEL)
   mkdirSync(config.DATA_DIR, { recursive: true })
-  const sequelize = openDatabase(path.join(config.DATA_DIR, 'plumbline.sqlite'))
+  const sequelize = openDatabase(databaseFile(config.DATA_DIR))
   await sequelize.authenticate()
+  // Writers queue and readers go on beside them only in WAL (db/sqlite-connection.ts); another process holding the file
+  // as it is first switched would leave it in its old mode.
+  if ((await journalMode(sequelize)) !== 'wal') throw new Error('The database is not in WAL mode; is another process holding it?')
   const models = initModels(sequelize)
   await createMigrator(sequelize).up()
   if (config.DEMO) await seedDemo()
@@ -81,13 +83,7 @@ export async function startServer(config: Config): Promise<RunningServer> {
   void observerTerm().catch((err: unknown) => log.warn({ err }, 'could not precompute the agreement pairs'))
   return {
     url,
-    close: async () => {
-      await closeGracefully(server, config.SHUTDOWN_GRACE_MS)
-      await Promise.race([mailer.idle(), delay(5_000, undefined, { ref: false })])
-      mailer.close()
-      await fakeSmtp?.close()
-      await sequelize.close()
-    },
+    close: () => shutDown({ server, graceMs: config.SHUTDOWN_GRACE_MS, mailer, fakeSmtp, sequelize }),
   }
 }
 
