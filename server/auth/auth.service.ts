@@ -48,12 +48,13 @@ export async function refresh(secret: string, token: string | undefined): Promis
   if (!token) throw expired()
   const row = await RefreshSessionModel.findOne({ where: { tokenHash: hashToken(token) } })
   if (!row) throw expired()
-  if (row.revokedAt) {
+  // One conditional update claims the token: of two refreshes with the same token at the same moment, only one sees
+  // it unrevoked; the other is treated as reuse and ends the family.
+  const [claimed] = await RefreshSessionModel.update({ revokedAt: new Date() }, { where: { id: row.id, revokedAt: null } })
+  if (claimed !== 1) {
     await RefreshSessionModel.update({ revokedAt: new Date() }, { where: { familyId: row.familyId, revokedAt: null } })
     throw expired()
   }
-  row.revokedAt = new Date()
-  await row.save()
   const user = await getUser(row.userId)
   if (row.expiresAt.getTime() < Date.now() || !user?.active) throw expired()
   return issue(secret, user, row.familyId)

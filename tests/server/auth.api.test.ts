@@ -194,6 +194,16 @@ describe('refresh and logout', () => {
     expect(afterReplay.status).toBe(401)
   })
 
+  it('of two refreshes with the same token at the same moment, at most one succeeds (reuse detection holds)', async () => {
+    await makeUser({ email: 'g@example.test' })
+    const { cookie } = await signIn(app, 'g@example.test')
+
+    const both = await Promise.all([0, 1].map(() => request(app).post('/api/auth/refresh').set('Cookie', cookie)))
+
+    expect(both.filter((res) => res.status === 200).length).toBeLessThanOrEqual(1)
+    expect(both.every((res) => res.status === 200 || res.status === 401)).toBe(true)
+  })
+
   it('logout revokes the refresh token and is audited', async () => {
     const user = await makeUser({ email: 'f@example.test' })
     const { cookie } = await signIn(app, 'f@example.test', PASSWORD)
