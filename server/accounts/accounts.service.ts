@@ -3,6 +3,7 @@ import { Op, type Transaction, type WhereOptions } from 'sequelize'
 import type { Account, AccountPage, AccountPatch, AccountQuery, InviteInput } from '#shared/schemas/account'
 import type { Role, TeamRef, User } from '#shared/schemas/user'
 import { audit, auditAll, type AuditEntry } from '../audit.ts'
+import { containsText } from '../db/text-search.ts'
 import { writeTransaction } from '../db/transaction.ts'
 import { AppError, FIELDS_MESSAGE, invalidInput } from '../errors.ts'
 import type { MailDeps } from '../mail/mailer.ts'
@@ -44,13 +45,11 @@ export async function getAccount(id: string, transaction?: Transaction): Promise
   return toAccount(u, (await sortedTeamsOf([u.id], transaction)).get(u.id) ?? [])
 }
 
-/** Accounts by name, then id; the search matches name or e-mail anywhere, without case (instr: no wildcards to escape). */
+/** Accounts by name, then id; the search matches name or e-mail anywhere, without case. */
 export async function listAccounts(q: AccountQuery): Promise<AccountPage> {
   const where: WhereOptions[] = []
   if (q.search) {
-    const db = UserModel.sequelize!
-    const needle = q.search.toLowerCase()
-    const contains = (column: string) => db.where(db.fn('instr', db.fn('lower', db.col(column)), needle), { [Op.gt]: 0 })
+    const contains = (column: string) => containsText(UserModel.sequelize!, column, q.search!)
     where.push({ [Op.or]: [contains('displayName'), contains('email')] })
   }
   if (q.role) where.push(withRole(q.role))

@@ -39,6 +39,8 @@ describe('GET /api/admin/accounts', () => {
     const inactive = await api.list({ active: 'false' })
     const page2 = await api.list({ pageSize: '2', page: '2' })
     const wildcard = await api.list({ search: '%' })
+    const underscore = await api.list({ search: 'mei_' })
+    const escape = await api.list({ search: '!' })
 
     const names = (res: request.Response) => res.body.accounts.map((a: { displayName: string }) => a.displayName)
     expect(byName.status).toBe(200)
@@ -51,6 +53,8 @@ describe('GET /api/admin/accounts', () => {
     expect(names(page2)).toEqual(['Dr Noah Fitzgerald', 'Dr Priya Raman'])
     expect(byName.body.accounts[0]).toMatchObject({ status: 'invited', teams: [{ name: 'Medical ICU' }] })
     expect(wildcard.body.total).toBe(0)
+    expect(underscore.body.total).toBe(0)
+    expect(escape.body.total).toBe(0)
   })
 
   it('is for admins only and rejects an unknown filter value with a field error', async () => {
