@@ -1,4 +1,5 @@
-import type { Transaction } from 'sequelize'
+import { QueryTypes, UniqueConstraintError, type Sequelize, type Transaction } from 'sequelize'
+import { GENESIS_HASH, linkRows } from './audit-trail/audit-chain.ts'
 import { AuditEventModel } from './models/index.ts'
 
 export interface AuditEntry {
@@ -9,31 +10,56 @@ export interface AuditEntry {
   changes?: Record<string, unknown>
 }
 
-/** Appends one event to the trail, stamped with the server's clock. */
-export async function audit(entry: AuditEntry, options: { transaction?: Transaction } = {}): Promise<void> {
-  await AuditEventModel.create(
-    {
-      at: new Date(),
-      actorId: entry.actorId,
-      action: entry.action,
-      entityType: entry.entityType ?? null,
-      entityId: entry.entityId ?? null,
-      changes: entry.changes ? JSON.stringify(entry.changes) : null,
-    },
-    options,
+// Two writers outside a transaction may read the same head; the unique sequence refuses the second, which reads again.
+const ATTEMPTS = 5
+
+async function headOf(db: Sequelize, transaction?: Transaction): Promise<{ seq: number; hash: string }> {
+  const [head] = await db.query<{ seq: number; hash: string }>(
+    `SELECT "seq", "hash" FROM "audit_events" WHERE "seq" IS NOT NULL ORDER BY "seq" DESC LIMIT 1`,
+    { type: QueryTypes.SELECT, transaction },
   )
+  return head ?? { seq: 0, hash: GENESIS_HASH }
 }
 
-/** Appends several events in one statement, e.g. the creations of one sync push. */
-export async function auditAll(entries: AuditEntry[], options: { transaction?: Transaction } = {}): Promise<void> {
-  const at = new Date()
-  const rows = entries.map((entry) => ({
+function rowOf(entry: AuditEntry, at: Date) {
+  return {
     at,
     actorId: entry.actorId,
     action: entry.action,
     entityType: entry.entityType ?? null,
     entityId: entry.entityId ?? null,
     changes: entry.changes ? JSON.stringify(entry.changes) : null,
-  }))
-  await AuditEventModel.bulkCreate(rows, options)
+  }
+}
+
+/**
+ * Appends the events in one statement, each chained to the one before (server/audit-trail/audit-chain.ts). The head is
+ * read in the caller's transaction, whose write lock (writeTransaction) keeps any other writer from appending between
+ * the read and the insert.
+ */
+async function append(entries: AuditEntry[], transaction?: Transaction): Promise<void> {
+  if (entries.length === 0) return
+  const db = AuditEventModel.sequelize!
+  for (let attempt = 1; ; attempt += 1) {
+    try {
+      const at = new Date()
+      const rows = linkRows(
+        entries.map((entry) => rowOf(entry, at)),
+        await headOf(db, transaction),
+      )
+      return void (await db.getQueryInterface().bulkInsert('audit_events', rows, { transaction }))
+    } catch (err) {
+      if (transaction || !(err instanceof UniqueConstraintError) || attempt >= ATTEMPTS) throw err
+    }
+  }
+}
+
+/** Appends one event to the trail, stamped with the server's clock. */
+export async function audit(entry: AuditEntry, options: { transaction?: Transaction } = {}): Promise<void> {
+  await append([entry], options.transaction)
+}
+
+/** Appends several events in one statement, e.g. the creations of one sync push. */
+export async function auditAll(entries: AuditEntry[], options: { transaction?: Transaction } = {}): Promise<void> {
+  await append(entries, options.transaction)
 }

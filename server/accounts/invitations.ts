@@ -10,7 +10,7 @@ export interface SendInvitationOptions extends MailDeps {
   userId: string
   /** The admin sending it; named in the e-mail and the audit trail. */
   invitedBy: string
-  /** When given, the link is written inside it and the e-mail leaves only after it commits. */
+  /** When given, the link and the e-mail are written inside it; the e-mail leaves only after it commits. */
   transaction?: Transaction
 }
 
@@ -49,6 +49,6 @@ export async function sendInvitation(opts: SendInvitationOptions): Promise<void>
     inviterName: inviter?.displayName ?? 'Your Plumbline administrator',
     displayName: user.displayName,
   })
-  if (transaction) transaction.afterCommit(() => mailer.send(message))
-  else mailer.send(message)
+  // In the outbox inside the same transaction: it leaves after the commit, and never when the transaction rolls back.
+  await mailer.enqueue(message, { transaction })
 }

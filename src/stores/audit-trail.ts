@@ -1,7 +1,7 @@
 import { defineStore } from 'pinia'
 import { computed, ref } from 'vue'
-import { AuditQuerySchema, type AuditEvent, type AuditQuery } from '#shared/schemas/audit'
-import { fetchAuditPage } from '@/api/audit'
+import { AuditQuerySchema, type AuditChainReport, type AuditEvent, type AuditQuery } from '#shared/schemas/audit'
+import { fetchAuditPage, verifyAuditChain } from '@/api/audit'
 import { fetchExamHistory } from '@/api/supervision'
 
 export type AuditFilters = Pick<AuditQuery, 'actorId' | 'action' | 'entityId' | 'from' | 'to'>
@@ -18,6 +18,9 @@ export const useAuditTrailStore = defineStore('audit-trail', () => {
   /** One exam's own events, oldest first, for its history panel. */
   const history = ref<AuditEvent[]>([])
   const historyExamId = ref<string | null>(null)
+  /** The last walk of the hash chain, null until an admin asks for one. */
+  const chainReport = ref<AuditChainReport | null>(null)
+  const verifying = ref(false)
   let latestRequest = 0
 
   const filters = computed<AuditFilters>(() => {
@@ -58,5 +61,30 @@ export const useAuditTrailStore = defineStore('audit-trail', () => {
     history.value = await fetchExamHistory(examId)
   }
 
-  return { events, total, query, loading, history, historyExamId, filters, load, setFilters, setPaging, loadHistory }
+  /** Asks the server to walk the hash chain; keeps the previous report when the request fails. */
+  async function verifyChain() {
+    verifying.value = true
+    try {
+      chainReport.value = await verifyAuditChain()
+    } finally {
+      verifying.value = false
+    }
+  }
+
+  return {
+    events,
+    total,
+    query,
+    loading,
+    history,
+    historyExamId,
+    chainReport,
+    verifying,
+    filters,
+    load,
+    setFilters,
+    setPaging,
+    loadHistory,
+    verifyChain,
+  }
 })

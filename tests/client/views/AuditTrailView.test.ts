@@ -9,6 +9,7 @@ import { routes } from '@/router/routes'
 import { useSessionStore } from '@/stores/session'
 import * as admin from '@/api/admin'
 import * as audit from '@/api/audit'
+import { formatDateTime } from '@/utils/format'
 import { makeUser } from '../factories/user'
 
 vi.mock('@/api/audit')
@@ -123,5 +124,53 @@ describe('AuditTrailView', () => {
     const wrapper = await mountTrail()
 
     expect(wrapper.find('[data-testid="audit-empty"]').exists()).toBe(true)
+  })
+
+  it('"Verify the chain", when the chain is intact, says how many entries were verified and shows the last entry\'s hash', async () => {
+    vi.mocked(audit.verifyAuditChain).mockResolvedValue({
+      ok: true,
+      checkedRows: 412,
+      head: { seq: 412, hash: 'ab'.repeat(32), at: '2026-03-14T09:40:00.000Z' },
+      firstBreak: null,
+      verifiedAt: '2026-03-14T10:00:00.000Z',
+    })
+    const wrapper = await mountTrail()
+
+    await wrapper.find('[data-testid="chain-verify"]').trigger('click')
+    await flushPromises()
+
+    expect(wrapper.find('[data-testid="chain-ok"]').text()).toContain('Chain intact: 412 entries verified')
+    expect(wrapper.find('[data-testid="chain-head-hash"]').text()).toBe('ab'.repeat(32))
+  })
+
+  it('"Verify the chain", when a row is missing, names what is wrong, where and when', async () => {
+    vi.mocked(audit.verifyAuditChain).mockResolvedValue({
+      ok: false,
+      checkedRows: 2,
+      head: { seq: 2, hash: 'cd'.repeat(32), at: '2026-03-14T09:00:00.000Z' },
+      firstBreak: { kind: 'missing-row', seq: 3, at: '2026-03-14T09:40:00.000Z', message: 'Row 3 is missing: the chain goes from row 2 to row 4' },
+      verifiedAt: '2026-03-14T10:00:00.000Z',
+    })
+    const wrapper = await mountTrail()
+
+    await wrapper.find('[data-testid="chain-verify"]').trigger('click')
+    await flushPromises()
+
+    const alert = wrapper.find('[data-testid="chain-broken"]').text()
+    expect(alert).toContain('Chain broken: a row is missing at entry number 3')
+    expect(alert).toContain('Row 3 is missing: the chain goes from row 2 to row 4')
+    expect(alert).toContain(formatDateTime('2026-03-14T09:40:00.000Z'))
+    expect(wrapper.find('[data-testid="chain-ok"]').exists()).toBe(false)
+  })
+
+  it('"Verify the chain", when the server cannot be reached, says so', async () => {
+    vi.mocked(audit.verifyAuditChain).mockRejectedValue(new TypeError('Failed to fetch'))
+    const wrapper = await mountTrail()
+
+    await wrapper.find('[data-testid="chain-verify"]').trigger('click')
+    await flushPromises()
+
+    expect(wrapper.find('[data-testid="chain-error"]').exists()).toBe(true)
+    expect(wrapper.find('[data-testid="chain-broken"]').exists()).toBe(false)
   })
 })

@@ -1,6 +1,6 @@
 import request from 'supertest'
 import { beforeEach, describe, expect, it } from 'vitest'
-import { AuditPageSchema } from '#shared/schemas/audit'
+import { AuditChainReportSchema, AuditPageSchema } from '#shared/schemas/audit'
 import { AuditEventModel } from '../../../server/models/index.ts'
 import { recordExam, recordSubmittedExam } from '../factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
@@ -123,5 +123,39 @@ describe('GET /api/audit', () => {
     const statuses = await Promise.all(callers.map(async (c) => (await browse(c.auth)).res.status))
 
     expect(statuses).toEqual([403, 403, 403])
+  })
+})
+
+describe('GET /api/audit/verify', () => {
+  it('answers an admin with the walk of the chain over what the server audited', async () => {
+    const admin = await makeCaller({ roles: ['admin'] })
+    const team = await makeTeam()
+    const resident = await makeCaller({ teamIds: [team.id] })
+    await recordSubmittedExam(app, resident.auth, { teamId: team.id })
+
+    const res = await request(app).get('/api/audit/verify').set('Authorization', admin.auth)
+
+    const report = AuditChainReportSchema.parse(res.body)
+    expect(res.status).toBe(200)
+    expect(report.ok).toBe(true)
+    expect(report.checkedRows).toBeGreaterThanOrEqual(2)
+    expect(report.head!.seq).toBe(report.checkedRows)
+  })
+
+  it('when a row was written around the server, says the chain is broken', async () => {
+    const admin = await makeCaller({ roles: ['admin'] })
+    await eventAt('2026-01-01T08:00:00Z', 'login')
+
+    const res = await request(app).get('/api/audit/verify').set('Authorization', admin.auth)
+
+    expect(res.body).toMatchObject({ ok: false, firstBreak: { kind: 'unchained-row' } })
+  })
+
+  it('refuses anyone but an admin', async () => {
+    const attending = await makeCaller({ roles: ['attending'] })
+
+    const res = await request(app).get('/api/audit/verify').set('Authorization', attending.auth)
+
+    expect(res.status).toBe(403)
   })
 })
