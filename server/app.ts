@@ -41,7 +41,7 @@ export interface AppDeps {
   jsonLimit?: string
   /** Sends workflow e-mails; API tests may leave it out. */
   mailer?: Mailer
-  /** The demo's fake SMTP server; when present, admins read what it caught at /api/mailbox. */
+  /** The demo's fake SMTP server; when present, admins read what it caught at /api/mailbox (the outbox is always there). */
   mailbox?: Pick<FakeSmtp, 'messages'>
   /** Base of links in e-mails (PUBLIC_URL); never taken from a request's Host header, which the caller controls. */
   baseUrl: string
@@ -93,7 +93,7 @@ export function createApp(deps: AppDeps): Express {
     authRouter({ secret: deps.secret, cookieSecure: deps.cookieSecure ?? true, loginAttempts: deps.loginAttempts ?? 10 }),
   )
   app.use('/api/auth', accountAuthRouter({ log: deps.log, mailer: deps.mailer, baseUrl: deps.baseUrl }))
-  if (deps.mailbox) app.use('/api/mailbox', requireAuth(deps.secret), requireRole('admin'), mailboxRouter(deps.mailbox))
+  app.use('/api/mailbox', requireAuth(deps.secret), requireRole('admin'), mailboxRouter(deps.mailbox))
   app.use('/api/agreement', requireAuth(deps.secret), agreementRouter({ secret: deps.secret }))
   app.use('/api/sync', requireAuth(deps.secret), syncRouter({ secret: deps.secret }))
   app.use('/api/rounds', requireAuth(deps.secret), roundsRouter({ secret: deps.secret }))

@@ -5,7 +5,9 @@ import { changesBetween, snapshotOf } from '../exams/exam-changes.ts'
 import { columnsOf } from '../exams/exam-record.ts'
 import { invalidateObserverTerm } from '../agreement/observer-term.ts'
 import { derivePairs } from '../agreement/pair-derivation.ts'
-import { AuditEventModel, ExamModel, UserModel } from '../models/index.ts'
+import { auditAll, type AuditEntry } from '../audit.ts'
+import { writeTransaction } from '../db/transaction.ts'
+import { ExamModel, UserModel } from '../models/index.ts'
 import { estimateContext, estimateWith, type EstimateContext } from '../settings/settings-estimate.ts'
 import { VENOUS_SIGNS_SEEN } from './demo-signs.ts'
 
@@ -94,10 +96,9 @@ function columnsFor(plan: PlannedExam, examinerId: string, teamId: string, conte
   return { id: plan.id, examinerId, status: 'submitted', version: 2, submittedAt, ...columnsOf(input, estimateWith(input, context)) }
 }
 
-/** The audit entry the exams service writes for a new exam. */
-function createdEvent(row: ExamModel) {
-  const changes = JSON.stringify(changesBetween(null, snapshotOf(row)))
-  return { at: new Date(), actorId: row.examinerId, action: 'exam-create', entityType: 'exam', entityId: row.id, changes }
+/** The audit entry the exams service writes for a new exam (chained like every other: server/audit.ts). */
+function createdEvent(row: ExamModel): AuditEntry {
+  return { actorId: row.examinerId, action: 'exam-create', entityType: 'exam', entityId: row.id, changes: changesBetween(null, snapshotOf(row)) }
 }
 
 /**
@@ -114,11 +115,11 @@ export async function seedDemoPairs(teamIds: Map<string, string>, now = new Date
   const existing = new Set(stored.map((e) => e.id))
   const missing = plans.filter((p) => !existing.has(p.id) && userIds.has(p.account) && teamIds.has(p.team))
   const context = await estimateContext()
-  const created = await ExamModel.sequelize!.transaction(async (transaction) => {
+  const created = await writeTransaction(ExamModel.sequelize!, async (transaction) => {
     const values = missing.map((p) => columnsFor(p, userIds.get(p.account)!, teamIds.get(p.team)!, context))
     const rows = await ExamModel.bulkCreate(values, { transaction })
     await derivePairs(rows.map((row) => row.patientCode), { sequelize: ExamModel.sequelize!, transaction })
-    await AuditEventModel.bulkCreate(rows.map(createdEvent), { transaction })
+    await auditAll(rows.map(createdEvent), { transaction })
     return rows.length
   })
   // The pairs bypass the exams service, which would otherwise drop a σ_observer cached before they existed.

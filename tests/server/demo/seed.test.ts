@@ -1,6 +1,7 @@
 import request from 'supertest'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { ExamFindingsSchema, ExamListSchema } from '#shared/schemas/exam'
+import { verifyAuditChain } from '../../../server/audit-trail/chain-verify.ts'
 import { storedInput } from '../../../server/exams/exam-columns.ts'
 import { DEMO_PASSWORD, seedDemo } from '../../../server/demo/seed.ts'
 import { AuditEventModel, ExamModel, MembershipModel, TeamModel, UserModel } from '../../../server/models/index.ts'
@@ -34,6 +35,14 @@ describe('demo seed', () => {
     expect(second).toEqual({ created: 0, exams: 0 })
     expect(await counts()).toEqual(before)
     expect(before[0]).toBe(3)
+  })
+
+  it('leaves an audit chain that verifies, the bulk-inserted paired exams included', async () => {
+    const report = await verifyAuditChain()
+
+    expect(report.firstBreak).toBeNull()
+    expect(report.ok).toBe(true)
+    expect(report.checkedRows).toBe(await AuditEventModel.count())
   })
 
   it('lets the resident sign in with the demo password and puts them on the cardiology ward with the attending', async () => {
