@@ -79,8 +79,8 @@ export async function startServer(config: Config): Promise<RunningServer> {
     attachmentsDir: path.join(config.DATA_DIR, 'attachments'),
   })
   server.on('request', app)
-  // Pairs every exam once now, so neither the first save nor the first agreement view pays for it.
-  void observerTerm().catch((err: unknown) => log.warn({ err }, 'could not precompute the agreement pairs'))
+  // Computes the local error term once now, so the first save does not pay for it.
+  void observerTerm().catch((err: unknown) => log.warn({ err }, 'could not compute the local error term'))
   return {
     url,
     close: () => shutDown({ server, graceMs: config.SHUTDOWN_GRACE_MS, mailer, fakeSmtp, sequelize }),

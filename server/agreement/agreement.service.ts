@@ -1,11 +1,13 @@
 import type { AgreementPairList, AgreementPairsQuery, AgreementQuery, AgreementSummary, AgreementTrend } from '#shared/schemas/agreement'
 import type { User } from '#shared/schemas/user'
 import { audit } from '../audit.ts'
-import { pairFilter, pairScopeOf, pairTime } from './agreement-scope.ts'
+import { pairWhereFor } from './agreement-scope.ts'
+import { attendingIdsOf, loadExaminers } from './examiners.ts'
+import { pairGroups } from './pair-groups.ts'
 import { presentPairs } from './pair-list.ts'
-import type { Pair } from './pairs.ts'
-import { programPairs } from './pair-store.ts'
-import { pointPairs, summarize } from './summary.ts'
+import { pairPage } from './pair-page.ts'
+import { orient, type Pair } from './pairs.ts'
+import { summarize } from './summary.ts'
 import { monthlyTrend } from './trend.ts'
 
 export interface AgreementViewer {
@@ -14,23 +16,20 @@ export interface AgreementViewer {
   mask: (patientCode: string) => string
 }
 
-/** The program's pairs narrowed to the viewer's scope and the query's filters. */
-async function pairsFor(user: User, query: AgreementQuery) {
-  const scope = await pairScopeOf(user, query)
-  const keep = pairFilter({ ...query, examinerId: scope.examinerId })
-  const { pairs, examiners } = await programPairs()
-  return { pairs: pairs.filter((p) => keep(p) && scope.includes(p)), scope, examiners }
-}
-
+/**
+ * The statistics of the viewer's pairs matching the query, from `agreement_pairs` with one aggregate query. The
+ * difference's order follows the examiners' roles as they stand now, so a change of roles needs no pairing again.
+ */
 export async function agreementSummary(user: User, query: AgreementQuery): Promise<AgreementSummary> {
-  const { pairs, scope, examiners } = await pairsFor(user, query)
-  return summarize(pairs, examiners, scope.examinerId)
+  const { scope, where } = await pairWhereFor(user, query)
+  const [groups, examiners] = await Promise.all([pairGroups(where), loadExaminers()])
+  return summarize(groups, examiners, scope.examinerId)
 }
 
 /** Bias and limits per calendar month (UTC) over the same pairs as the summary. */
 export async function agreementTrend(user: User, query: AgreementQuery): Promise<AgreementTrend> {
-  const { pairs } = await pairsFor(user, query)
-  return monthlyTrend(pairs)
+  const { where } = await pairWhereFor(user, query)
+  return monthlyTrend(where, attendingIdsOf(await loadExaminers()))
 }
 
 /** A pairs download is an export, so it is audited: once, on its first page, with the filters and the pair count. */
@@ -40,19 +39,17 @@ async function auditExport(user: User, query: AgreementPairsQuery, rows: number)
   await audit({ actorId: user.id, action: 'agreement-pairs-export', entityType: 'export', changes: { format, filter, rows } })
 }
 
-const byExamId = (a: Pair, b: Pair) => (a.first.examId < b.first.examId ? -1 : a.first.examId > b.first.examId ? 1 : 0)
-
 /**
  * Newest pairs with a measured height on both sides first (those the plots draw); with `export`, the first page also
  * records the download in the audit trail.
  */
 export async function listAgreementPairs(viewer: AgreementViewer, query: AgreementPairsQuery): Promise<AgreementPairList> {
-  const { pairs: all, scope, examiners } = await pairsFor(viewer.user, query)
-  const pairs = pointPairs(all)
-  const newestFirst = pairs.sort((a, b) => pairTime(b) - pairTime(a) || byExamId(a, b))
-  const page = newestFirst.slice((query.page - 1) * query.pageSize, query.page * query.pageSize)
+  const { scope, where } = await pairWhereFor(viewer.user, query)
+  const examiners = await loadExaminers()
+  const { pairs, total } = await pairPage(where, attendingIdsOf(examiners), query.page, query.pageSize)
+  const isAttending = (id: string) => examiners.get(id)?.role === 'attending'
   const codeOf = (pair: Pair) => (scope.showsCode(pair) ? pair.first.patientCode : viewer.mask(pair.first.patientCode))
-  const presented = presentPairs(page, examiners, codeOf)
-  if (query.export && query.page === 1) await auditExport(viewer.user, query, pairs.length)
-  return { pairs: presented, total: pairs.length, page: query.page, pageSize: query.pageSize }
+  const presented = presentPairs(pairs.map((pair) => orient(pair, isAttending)), examiners, codeOf)
+  if (query.export && query.page === 1) await auditExport(viewer.user, query, total)
+  return { pairs: presented, total, page: query.page, pageSize: query.pageSize }
 }

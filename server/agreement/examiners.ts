@@ -14,3 +14,7 @@ export async function loadExaminers(): Promise<Map<string, Examiner>> {
   const users = await UserModel.findAll({ attributes: ['id', 'displayName', 'roles'] })
   return new Map(users.map((u) => [u.id, { name: u.displayName, role: rolesOf(u).includes('attending') ? 'attending' : 'resident' }]))
 }
+
+/** The accounts that count as the attending of a pair. */
+export const attendingIdsOf = (examiners: Map<string, Examiner>): string[] =>
+  [...examiners].filter(([, e]) => e.role === 'attending').map(([id]) => id)

@@ -1,12 +1,14 @@
+import { col, literal, Op } from 'sequelize'
 import { defaultObserverTerm } from '#shared/domain/estimate'
 import { localTermFromPairs, localTermFromRounds } from '#shared/domain/observer-term'
 import type { ObserverTerm } from '#shared/schemas/exam'
+import { quoteName } from '../db/quote.ts'
+import { AgreementPairModel } from '../models/index.ts'
 import { closedRoundSubjects, onRoundClose } from '../rounds/rounds.service.ts'
 import { currentSettings, onSettingsChange } from '../settings/settings.service.ts'
-import { pairTime } from './agreement-scope.ts'
-import type { Pair } from './pairs.ts'
-import { programPairs } from './pair-store.ts'
-import { isPoint, pointHeight } from './reading-categories.ts'
+import { POINT_PAIRS } from './agreement-scope.ts'
+import { attendingIdsOf, loadExaminers } from './examiners.ts'
+import { differenceSql, flipsSql } from './orientation-sql.ts'
 
 /** Rounds and pairs older than this no longer describe the deployment's examiners (product default). */
 export const OBSERVER_LOOKBACK_DAYS = 365
@@ -21,17 +23,23 @@ let cached: { term: ObserverTerm; computedAt: number } | null = null
 let pending: { generation: number; term: Promise<ObserverTerm> } | null = null
 let generation = 0
 
-const comparable = (p: Pair) =>
-  isPoint(p.first) && isPoint(p.second) && Math.abs(p.first.inclinationDeg - p.second.inclinationDeg) <= PAIR_MAX_INCLINATION_DIFF_DEG
+const [earlierInclination, laterInclination] = [quoteName('earlierInclinationDeg'), quoteName('laterInclinationDeg')]
 
 /**
- * The height differences of the routine pairs of the window with a measured height on both sides (a bound has no
- * difference to take), their two exams taken at (nearly) the same inclination.
+ * The height differences (first − second) of the routine pairs of the window with a measured height on both sides (a
+ * bound has no difference to take), their two exams taken at (nearly) the same inclination. Asked for as each distinct
+ * difference with its count: heights are read to a few decimals, so a handful of rows stand for thousands of pairs.
  */
 async function pairDifferences(since: number, now: number): Promise<number[]> {
-  const { pairs } = await programPairs()
-  const kept = pairs.filter((p) => pairTime(p) >= since && pairTime(p) <= now && comparable(p))
-  return kept.map((p) => pointHeight(p.first) - pointHeight(p.second))
+  const difference = differenceSql(flipsSql(AgreementPairModel.sequelize!, attendingIdsOf(await loadExaminers())))
+  const comparable = literal(`ABS(${earlierInclination} - ${laterInclination}) <= ${PAIR_MAX_INCLINATION_DIFF_DEG}`)
+  const rows = (await AgreementPairModel.findAll({
+    attributes: [[literal(difference), 'difference'], [literal('COUNT(*)'), 'n']],
+    where: { [Op.and]: [POINT_PAIRS, { pairedAt: { [Op.between]: [new Date(since), new Date(now)] } }, comparable] },
+    group: [col('difference')],
+    raw: true,
+  })) as unknown as { difference: number | string; n: number | string }[]
+  return rows.flatMap((row) => new Array<number>(Number(row.n)).fill(Number(row.difference)))
 }
 
 async function compute(now: number): Promise<ObserverTerm> {

@@ -1,5 +1,4 @@
 import { Op, type QueryInterface, type Sequelize, type Transaction, type WhereOptions } from 'sequelize'
-import { notePairChanges } from './pair-mirror.ts'
 import { readingsWhere, windowIn } from './pair-readings.ts'
 import { rowOf } from './pair-rows.ts'
 import { pairReadings, type ExamPair } from './pairs.ts'
@@ -49,7 +48,6 @@ export async function derivePairs(
     await deleteWhere(write, chunk)
     await insertPairs(write, pairReadings(await readingsWhere(write, { ...READINGS_OF[rule], ...chunk }), windowMinutes))
   }
-  notePairChanges(write.sequelize, write.transaction, codes)
 }
 
 /**
@@ -82,5 +80,4 @@ export async function deriveAllPairs(write: PairWrite, windowMinutes?: number): 
   for (let i = 0; i < ended.length; i += ROWS_PER_INSERT)
     await deleteWhere(write, { earlierExamId: { [Op.in]: ended.slice(i, i + ROWS_PER_INSERT) } })
   await insertPairs(write, derived.filter((p) => !storedKeys.has(keyOf(p.earlier.examId, p.later.examId))))
-  notePairChanges(write.sequelize, write.transaction, null)
 }

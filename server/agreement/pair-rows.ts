@@ -6,7 +6,7 @@ import type { ExamPair, PairColumnTop, Reading } from './pairs.ts'
 export type PairRow = InferAttributes<AgreementPairModel>
 
 /** SQLite hands a DATE back as text, other dialects as a Date. */
-const millis = (value: Date | string) => (typeof value === 'string' ? Date.parse(value) : value.getTime())
+export const millis = (value: Date | string) => (typeof value === 'string' ? Date.parse(value) : value.getTime())
 
 /** The `agreement_pairs` row of a pair: its time is the earlier exam's, its band that of the mean inclination. */
 export function rowOf({ earlier: e, later: l }: ExamPair): PairRow {

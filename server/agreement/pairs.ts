@@ -43,13 +43,16 @@ export interface Pair {
  * earlier − later. Taken when the pairs are read, so that a change of an account's roles needs no pairing again.
  */
 export function orient({ earlier, later }: ExamPair, isAttending: (examinerId: string) => boolean): Pair {
-  const earlierAttends = isAttending(earlier.examinerId)
-  if (earlierAttends !== isAttending(later.examinerId)) {
-    const [first, second] = earlierAttends ? [later, earlier] : [earlier, later]
+  if (isAttending(earlier.examinerId) !== isAttending(later.examinerId)) {
+    const [first, second] = flips(earlier.examinerId, later.examinerId, isAttending) ? [later, earlier] : [earlier, later]
     return { first, second, order: 'resident-minus-attending' }
   }
   return { first: earlier, second: later, order: 'earlier-minus-later' }
 }
+
+/** Whether the later reading comes first in the difference: the attending examined first, a resident after. */
+export const flips = (earlierExaminerId: string, laterExaminerId: string, isAttending: (examinerId: string) => boolean) =>
+  isAttending(earlierExaminerId) && !isAttending(laterExaminerId)
 
 /** Nearest in time first, each exam in at most one pair; ties go to the earlier exam. */
 function pairGroup(group: Reading[], windowMs: number, out: ExamPair[]): void {

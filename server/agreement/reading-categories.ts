@@ -4,7 +4,8 @@ import { DEFAULT_ESTIMATE_SETTINGS } from '#shared/schemas/settings'
 import type { Reading } from './pairs.ts'
 
 // The estimate's own interpretation rules applied to the stored h and CVP columns: both readings of a pair are
-// judged by one set of thresholds, and the estimate JSON of every exam need not be parsed.
+// judged by one set of thresholds, and the estimate JSON of every exam need not be parsed. `reading-levels-sql.ts`
+// writes the same rules in SQL.
 const settings = DEFAULT_ESTIMATE_SETTINGS
 
 /** The declared, ordered category scale of the weighted kappa. */
@@ -44,3 +45,5 @@ export const elevatedOfReading = (r: Reading): boolean | null => elevatedOf(BOUN
 
 /** The elevated threshold in force (cm above the sternal angle), for the reasons the summary gives. */
 export const ELEVATED_ABOVE_CM = settings.elevatedAboveCm
+/** The category thresholds in force (cmH₂O): low below the first, high above the second. */
+export const CATEGORY_LIMITS = { lowBelow: settings.lowBelowCmH2O, highAbove: settings.highAboveCmH2O } as const

@@ -1,25 +1,40 @@
-import { blandAltman } from '#shared/stats/index'
+import { fn, col, literal, Op } from 'sequelize'
+import { blandAltmanFromSums, type DifferenceSums } from '#shared/stats/index'
 import type { AgreementTrend, MonthAgreement } from '#shared/schemas/agreement'
-import { pairTime } from './agreement-scope.ts'
-import type { Pair } from './pairs.ts'
-import { pointHeight } from './reading-categories.ts'
-import { pointPairs } from './summary.ts'
+import { quoteName } from '../db/quote.ts'
+import { AgreementPairModel } from '../models/index.ts'
+import { POINT_PAIRS, type PairWhere } from './agreement-scope.ts'
+import { differenceSql, flipsSql } from './orientation-sql.ts'
+import { millis } from './pair-rows.ts'
 
 /** Months since 1970-01 (UTC) of an epoch time: a key that sorts and counts on without calendar arithmetic. */
-function monthIndex(ms: number): number {
-  const date = new Date(ms)
-  return date.getUTCFullYear() * 12 + date.getUTCMonth()
-}
-
+const monthIndex = (ms: number) => new Date(ms).getUTCFullYear() * 12 + new Date(ms).getUTCMonth()
+const monthStart = (index: number) => new Date(Date.UTC(Math.floor(index / 12), index % 12, 1))
 const monthLabel = (index: number) => `${Math.floor(index / 12)}-${String((index % 12) + 1).padStart(2, '0')}`
 
-function monthOf(index: number, first: number[], second: number[]): MonthAgreement {
+function monthOf(index: number, sums: DifferenceSums | undefined): MonthAgreement {
   const month = monthLabel(index)
-  const n = first.length
-  if (n === 0) return { month, n, bias: null, sd: null, loa: null }
-  const r = blandAltman(first, second)
-  if (r.ok) return { month, n, bias: r.bias, sd: r.sd, loa: r.loa }
-  return { month, n, bias: first[0]! - second[0]!, sd: null, loa: null }
+  if (!sums?.n) return { month, n: 0, bias: null, sd: null, loa: null }
+  const r = blandAltmanFromSums(sums)
+  if (r.ok) return { month, n: sums.n, bias: r.bias, sd: r.sd, loa: r.loa }
+  return { month, n: sums.n, bias: sums.sum, sd: null, loa: null }
+}
+
+/**
+ * The month of `pairedAt` as its offset from `start`, by halving the months `start`…`end` (a comparison per halving):
+ * the databases share no function that takes a month from a timestamp, but they all compare timestamps.
+ */
+function monthSql(start: number, end: number): string {
+  if (start === end) return '0'
+  const mid = Math.floor((start + end + 1) / 2)
+  const before = `${quoteName('pairedAt')} < ${AgreementPairModel.sequelize!.escape(monthStart(mid))}`
+  return `CASE WHEN ${before} THEN ${monthSql(start, mid - 1)} ELSE ${mid - start} + ${monthSql(mid, end)} END`
+}
+
+async function monthRange(where: PairWhere): Promise<[number, number] | null> {
+  const attributes: [ReturnType<typeof fn>, string][] = [[fn('MIN', col('pairedAt')), 'first'], [fn('MAX', col('pairedAt')), 'last']]
+  const range = (await AgreementPairModel.findOne({ attributes, where, raw: true })) as unknown as { first: Date | string | null; last: Date | string | null }
+  return range.first === null || range.last === null ? null : [monthIndex(millis(range.first)), monthIndex(millis(range.last))]
 }
 
 /**
@@ -27,22 +42,19 @@ function monthOf(index: number, first: number[], second: number[]): MonthAgreeme
  * differences in the pairs' own order as in the summary, over the pairs with a measured height on both sides (a bound
  * has no difference to take); every month between the first and the last is listed.
  */
-export function monthlyTrend(pairs: readonly Pair[]): AgreementTrend {
-  const byMonth = new Map<number, { first: number[]; second: number[] }>()
-  for (const pair of pointPairs(pairs)) {
-    const key = monthIndex(pairTime(pair))
-    let month = byMonth.get(key)
-    if (!month) byMonth.set(key, (month = { first: [], second: [] }))
-    month.first.push(pointHeight(pair.first))
-    month.second.push(pointHeight(pair.second))
-  }
-  if (!byMonth.size) return { months: [] }
-  const keys = [...byMonth.keys()]
-  const [start, end] = [Math.min(...keys), Math.max(...keys)]
-  const months: MonthAgreement[] = []
-  for (let index = start; index <= end; index++) {
-    const month = byMonth.get(index)
-    months.push(monthOf(index, month?.first ?? [], month?.second ?? []))
-  }
-  return { months }
+export async function monthlyTrend(where: PairWhere, attendingIds: readonly string[]): Promise<AgreementTrend> {
+  const points = { [Op.and]: [where, POINT_PAIRS] }
+  const range = await monthRange(points)
+  if (!range) return { months: [] }
+  const [start, end] = range
+  const difference = differenceSql(flipsSql(AgreementPairModel.sequelize!, attendingIds))
+  const attributes: [ReturnType<typeof literal>, string][] = [
+    [literal(monthSql(start, end)), 'month'],
+    [literal('COUNT(*)'), 'n'],
+    [literal(`SUM(${difference})`), 'sum'],
+    [literal(`SUM((${difference}) * (${difference}))`), 'sumOfSquares'],
+  ]
+  const rows = (await AgreementPairModel.findAll({ attributes, where: points, group: [col('month')], raw: true })) as unknown as Record<string, unknown>[]
+  const byMonth = new Map(rows.map((r) => [Number(r.month), { n: Number(r.n), sum: Number(r.sum), sumOfSquares: Number(r.sumOfSquares) }]))
+  return { months: Array.from({ length: end - start + 1 }, (_, i) => monthOf(start + i, byMonth.get(i))) }
 }

@@ -22,7 +22,6 @@ const Z_975 = 1.96
 /**
  * Bias, limits of agreement and their 95% CIs for two methods measured on the same subjects
  * (Bland & Altman 1986, Lancet i:307–310). Differences are `a[i] − b[i]`.
- * Each limit's CI uses SE ≈ √(3·sd²/n) and t with n − 1 df, as in that paper.
  */
 export function blandAltman(a: readonly number[], b: readonly number[]): BlandAltman {
   if (a.length !== b.length) throw new StatsInputError(`a and b must pair up: ${a.length} vs ${b.length} values`)
@@ -34,6 +33,14 @@ export function blandAltman(a: readonly number[], b: readonly number[]): BlandAl
   const diffs = a.map((v, i) => v - b[i]!)
   const bias = sum(diffs) / n
   const sd = Math.sqrt(sum(diffs.map((d) => (d - bias) ** 2)) / (n - 1))
+  return blandAltmanOf(n, bias, sd)
+}
+
+/**
+ * The limits of agreement and the CIs of n ≥ 2 differences with mean `bias` and sample SD `sd` (Bland & Altman 1986,
+ * Lancet i:307–310): each limit's CI uses SE ≈ √(3·sd²/n) and t with n − 1 df.
+ */
+export function blandAltmanOf(n: number, bias: number, sd: number): BlandAltman {
   const t = tQuantile(0.975, n - 1)
   const biasHalf = t * (sd / Math.sqrt(n))
   const limitHalf = t * Math.sqrt((3 * sd ** 2) / n)

@@ -32,9 +32,14 @@ export function iccOneWay(ratings: readonly (readonly number[])[]): IccOneWay {
   if (ms.totalSumOfSquares === 0) return degenerate('All ratings are identical')
   if (ms.rows === 0) return degenerate('Subjects do not differ, so the ICC is undefined')
 
+  return iccOneWayOf(n, k, ms.rows, ms.within)
+}
+
+/** ICC(1,1) and its F-based 95% CI from the one-way mean squares of n subjects × k ratings (MS_between > 0). */
+export function iccOneWayOf(n: number, k: number, msBetween: number, msWithin: number): IccOneWay {
   const df: [number, number] = [n - 1, n * (k - 1)]
-  const f = ms.within === 0 ? Infinity : ms.rows / ms.within
-  const [low, high] = ms.within === 0 ? [Infinity, Infinity] : fLimits(f, df[0], df[1])
-  const value = (ms.rows - ms.within) / (ms.rows + (k - 1) * ms.within)
-  return { ok: true, n, k, value, ci: [single(low, k), single(high, k)], msBetween: ms.rows, msWithin: ms.within, f, df }
+  const f = msWithin === 0 ? Infinity : msBetween / msWithin
+  const [low, high] = msWithin === 0 ? [Infinity, Infinity] : fLimits(f, df[0], df[1])
+  const value = (msBetween - msWithin) / (msBetween + (k - 1) * msWithin)
+  return { ok: true, n, k, value, ci: [single(low, k), single(high, k)], msBetween, msWithin, f, df }
 }

@@ -16,7 +16,8 @@ beforeAll(async () => {
   const educator = await makeCaller({ roles: ['educator'] })
   summary = (await summaryAs(app, educator.auth)).summary!
   list = (await pairsAs(app, educator.auth, { pageSize: 1000 })).list!
-})
+  // Seeding the whole demo hospital takes about 7 s alone on the 2-core machine, past the default 10 s hook limit when busy.
+}, 60_000)
 
 describe('demo agreement data (issue 6)', () => {
   it('holds at least 120 resident–attending pairs across the three teams', () => {
