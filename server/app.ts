@@ -19,6 +19,7 @@ import type { Mailer } from './mail/mailer.ts'
 import type { Models } from './models/index.ts'
 import { requireAuth, requireRole } from './middleware/auth.ts'
 import { errorHandler } from './middleware/error-handler.ts'
+import { bodyGuard, pathAndQueryGuard } from './middleware/input-guard.ts'
 import { rosterRouter } from './roster/roster.routes.ts'
 import { adminSettingsRouter, settingsRouter } from './settings/settings.routes.ts'
 import { roundsRouter } from './rounds/rounds.routes.ts'
@@ -86,7 +87,9 @@ export function createApp(deps: AppDeps): Express {
     res.set('Cache-Control', 'no-store')
     next()
   })
-  app.use('/api', express.json({ limit: deps.jsonLimit ?? '256kb' }), cookieParser())
+  app.use(pathAndQueryGuard)
+  // A sync push checks each change on its own (server/sync), so one bad record does not fail the batch.
+  app.use('/api', express.json({ limit: deps.jsonLimit ?? '256kb' }), cookieParser(), bodyGuard(['/sync/push']))
   app.get('/api/health', (_req, res) => res.json({ status: 'ok', demo: deps.demo }))
   app.use(
     '/api/auth',

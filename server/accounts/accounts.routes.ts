@@ -10,7 +10,7 @@ import {
 } from '#shared/schemas/account'
 import type { MailDeps } from '../mail/mailer.ts'
 import { currentUser, requireRole } from '../middleware/auth.ts'
-import { attemptLimiter, byAddress, byAddressAndEmail } from '../middleware/rate-limit.ts'
+import { attemptLimiter, byAddress, byAddressAndEmail, textCredentials } from '../middleware/rate-limit.ts'
 import {
   deactivateAccount,
   getAccount,
@@ -69,13 +69,13 @@ export function accountAuthRouter({ mailer, baseUrl, log, resetAttempts = 5, set
 
   // No account enumeration: the answer is sent before anything depends on the address (OWASP Forgot Password
   // Cheat Sheet: same message, same time), so known and unknown addresses get the same status, body and timing.
-  router.post('/password-reset', resetLimiter, (req, res) => {
+  router.post('/password-reset', textCredentials('email'), resetLimiter, (req, res) => {
     const input = PasswordResetRequestSchema.parse(req.body)
     res.status(202).json(PASSWORD_RESET_ACCEPTED)
     const mail = { mailer, baseUrl }
     runAfterResponse(log, 'password reset request', () => requestPasswordReset(input, mail))
   })
-  router.post('/set-password', setPasswordLimiter, async (req, res) => {
+  router.post('/set-password', textCredentials('token', 'password'), setPasswordLimiter, async (req, res) => {
     res.json(await setPasswordWithLink(SetPasswordInputSchema.parse(req.body)))
   })
   return router

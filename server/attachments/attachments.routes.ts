@@ -21,9 +21,13 @@ const upload = multer({
   limits: { fileSize: ATTACHMENT_MAX_BYTES, files: 1, fields: 4, fieldSize: 1024, parts: 5 },
 }).single('file')
 
-function uploadError(err: unknown): unknown {
-  if (!(err instanceof multer.MulterError)) return err
-  if (err.code === 'LIMIT_FILE_SIZE') return new AppError('too-large', 413, `A photo may be at most ${MB} MB`, { file: `The photo is over ${MB} MB` })
+const UNREADABLE = 'The upload was cut off or is not a valid multipart form'
+
+/** Multer's limits as field errors; anything else busboy throws (no closing boundary, a broken header) is the sender's 400. */
+function uploadError(err: unknown): AppError {
+  if (!(err instanceof multer.MulterError)) return new AppError('invalid-input', 400, UNREADABLE, { file: UNREADABLE })
+  if (err.code === 'LIMIT_FILE_SIZE')
+    return new AppError('too-large', 413, `A photo may be at most ${MB} MB`, { file: `The photo is over ${MB} MB` })
   if (err.code === 'LIMIT_FILE_COUNT' || err.code === 'LIMIT_UNEXPECTED_FILE')
     return invalidInput({ file: 'Send one photo per request, in the field "file"' })
   return new AppError('invalid-input', 400, 'The upload could not be read', { _: err.message })

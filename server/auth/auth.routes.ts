@@ -1,6 +1,6 @@
 import { Router, type CookieOptions, type Response } from 'express'
 import { LoginInputSchema } from '#shared/schemas/user'
-import { attemptLimiter, byAddressAndEmail } from '../middleware/rate-limit.ts'
+import { attemptLimiter, byAddressAndEmail, textCredentials } from '../middleware/rate-limit.ts'
 import { login, logout, refresh, REFRESH_TTL_MS, type IssuedSession } from './auth.service.ts'
 
 export const REFRESH_COOKIE = 'plumbline_refresh'
@@ -20,7 +20,9 @@ export function authRouter({ secret, cookieSecure, loginAttempts }: AuthRouterOp
   const message = 'Too many sign-in attempts; wait 15 minutes'
   const limiter = attemptLimiter({ limit: loginAttempts, key: byAddressAndEmail, message, failuresOnly: true })
 
-  router.post('/login', limiter, async (req, res) => send(res, await login(secret, LoginInputSchema.parse(req.body))))
+  router.post('/login', textCredentials('email', 'password'), limiter, async (req, res) =>
+    send(res, await login(secret, LoginInputSchema.parse(req.body))),
+  )
   router.post('/refresh', async (req, res) => send(res, await refresh(secret, req.cookies?.[REFRESH_COOKIE])))
   router.post('/logout', async (req, res) => {
     await logout(req.cookies?.[REFRESH_COOKIE])

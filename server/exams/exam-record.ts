@@ -4,14 +4,17 @@ import type { User } from '#shared/schemas/user'
 import { ExamModel, TeamModel, UserModel } from '../models/index.ts'
 import { isAuthor } from './exam-rules.ts'
 import { signaturesOf } from '../supervision/signatures.ts'
-import { maskCodes } from './code-masking.ts'
 import { sortedJson, storedInput } from './exam-columns.ts'
 
 export { columnsOf, storedInput } from './exam-columns.ts'
 
-/** Free text (notes, a return comment) as the reader may see it: a masked reader gets the pseudonym wherever the code was typed. */
-function textFor(text: string, row: ExamModel, code: string): string {
-  return code === row.patientCode ? text : maskCodes(text, [row.patientCode], () => code)
+/**
+ * The free text (notes, the "other" reason, a return comment) for a reader who sees the patient code: as written.
+ * A reader who sees the code masked (an educator) gets none of it: free text can name any patient, not only this one.
+ */
+function freeTextFor(row: ExamModel, code: string) {
+  if (code !== row.patientCode) return { notes: '', notAssessableText: null, returnComment: null }
+  return { notes: row.notes ?? '', returnComment: row.returnComment ?? null }
 }
 
 /** Rows as the API's exam shape, with names and signatures joined and the patient code as the reader may see it. */
@@ -28,8 +31,7 @@ export async function present(rows: ExamModel[], codeOf: (row: ExamModel) => str
     ExamSchema.parse({
       ...storedInput(row),
       patientCode: codeOf(row),
-      notes: textFor(row.notes ?? '', row, codeOf(row)),
-      ...(row.notAssessableText ? { notAssessableText: textFor(row.notAssessableText, row, codeOf(row)) } : {}),
+      ...freeTextFor(row, codeOf(row)),
       examinerId: row.examinerId,
       examinerName: userNames.get(row.examinerId) ?? '',
       teamName: teamNames.get(row.teamId) ?? '',
@@ -40,7 +42,6 @@ export async function present(rows: ExamModel[], codeOf: (row: ExamModel) => str
       updatedAt: row.updatedAt.toISOString(),
       submittedAt: row.submittedAt?.toISOString() ?? null,
       signatures: signatures.get(row.id) ?? [],
-      returnComment: row.returnComment ? textFor(row.returnComment, row, codeOf(row)) : null,
     }),
   )
 }

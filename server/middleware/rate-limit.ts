@@ -1,6 +1,6 @@
 import type { Request, RequestHandler } from 'express'
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
-import { AppError } from '../errors.ts'
+import { AppError, invalidInput } from '../errors.ts'
 
 /** Attempts are counted over 15 minutes (product default, no published source). */
 export const ATTEMPT_WINDOW_MS = 15 * 60 * 1000
@@ -8,8 +8,31 @@ export const ATTEMPT_WINDOW_MS = 15 * 60 * 1000
 /** Per client address (IPv6 addresses by their subnet, so one host cannot rotate through its own range). */
 export const byAddress = (req: Request): string => ipKeyGenerator(req.ip ?? '')
 
-/** Per address and e-mail in the body, counted alike whether or not an account has that address. */
-export const byAddressAndEmail = (req: Request): string => `${byAddress(req)}|${String(req.body?.email ?? '').trim().toLowerCase()}`
+/** The body's e-mail as the limiter counts it; anything but a string (refused before the limiter) counts as none. */
+function emailOf(req: Request): string {
+  const email: unknown = (req.body as { email?: unknown } | undefined)?.email
+  return typeof email === 'string' ? email.trim().toLowerCase() : ''
+}
+
+/** Per address and e-mail in the body, counted alike whether or not an account has that address. Never throws. */
+export const byAddressAndEmail = (req: Request): string => `${byAddress(req)}|${emailOf(req)}`
+
+/**
+ * Refuses with 400 a body whose named credentials are not text (`{"email": {"toString": 1}}`), before a limiter or
+ * a service reads them. A missing field passes: the route's schema names it.
+ */
+export function textCredentials(...names: string[]): RequestHandler {
+  return (req, _res, next) => {
+    const body = req.body as Record<string, unknown> | undefined
+    const fields: Record<string, string> = {}
+    for (const name of names) {
+      const value = body && typeof body === 'object' && Object.hasOwn(body, name) ? body[name] : undefined
+      if (value !== undefined && typeof value !== 'string') fields[name] = 'Send this as text'
+    }
+    if (Object.keys(fields).length) throw invalidInput(fields)
+    next()
+  }
+}
 
 export interface AttemptLimit {
   limit: number

@@ -1,9 +1,10 @@
 import { Router } from 'express'
-import { SyncPullQuerySchema, SyncPushSchema } from '#shared/schemas/sync'
+import { SyncPullQuerySchema } from '#shared/schemas/sync'
 import { patientCodeMask } from '../exams/exam-access.ts'
 import { currentUser, requireRole } from '../middleware/auth.ts'
 import { pullChanges } from './sync-pull.service.ts'
 import { pushChanges } from './sync-push.service.ts'
+import { SyncBatchSchema } from './sync-items.ts'
 
 /** The offline client's push and pull. Mount it behind `requireAuth`. */
 export function syncRouter(options: { secret: string }): Router {
@@ -11,7 +12,7 @@ export function syncRouter(options: { secret: string }): Router {
   const mask = patientCodeMask(options.secret)
 
   router.post('/push', requireRole('resident', 'attending'), async (req, res) =>
-    res.json({ results: await pushChanges(currentUser(res), SyncPushSchema.parse(req.body).changes) }),
+    res.json({ results: await pushChanges(currentUser(res), SyncBatchSchema.parse(req.body).changes) }),
   )
   router.get('/pull', requireRole('resident', 'attending', 'educator'), async (req, res) =>
     res.json(await pullChanges({ user: currentUser(res), mask }, SyncPullQuerySchema.parse(req.query))),

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { idField, lineField, lowerUuid } from './fields.ts'
 import { RoleSchema, TeamRefSchema } from './user.ts'
 
 /**
@@ -46,7 +47,7 @@ const email = z
 
 const displayName = z.string().trim().min(1, 'Enter a name').max(120, 'Use at most 120 characters')
 const roles = z.array(RoleSchema).min(1, 'Choose at least one role').max(4)
-const teamIds = z.array(z.string().min(1).max(36)).max(50)
+const teamIds = z.array(z.string().min(1).max(36).transform(lowerUuid)).max(50)
 
 /** An account as the admin screen sees it. */
 export const AccountStatusSchema = z.enum(['active', 'invited', 'deactivated'])
@@ -68,9 +69,9 @@ export const AccountSchema = z.object({
 export type Account = z.infer<typeof AccountSchema>
 
 export const AccountQuerySchema = z.object({
-  search: z.string().trim().max(120).optional(),
+  search: lineField(120).optional(),
   role: RoleSchema.optional(),
-  teamId: z.string().max(36).optional(),
+  teamId: idField('Choose a team').optional(),
   active: z.enum(['true', 'false']).optional(),
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(25),

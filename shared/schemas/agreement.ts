@@ -1,8 +1,9 @@
 import { z } from 'zod'
 import { LANDIS_KOCH_LABELS } from '../stats/landis-koch.ts'
 import { CvpCategorySchema, VeinSchema } from './exam.ts'
+import { clientTime, idField } from './fields.ts'
 
-const isoTime = z.iso.datetime({ offset: true, message: 'Use an ISO 8601 date-time' })
+const isoTime = clientTime('Use an ISO 8601 date-time')
 const interval = z.tuple([z.number(), z.number()])
 
 /**
@@ -36,8 +37,8 @@ export function veinMatches(filter: VeinFilter, vein: string): boolean {
 export const AgreementQuerySchema = z.object({
   from: isoTime.optional(),
   to: isoTime.optional(),
-  teamId: z.string().min(1).optional(),
-  examinerId: z.string().min(1).optional(),
+  teamId: idField('Choose a team').optional(),
+  examinerId: idField('Choose an examiner').optional(),
   inclinationBand: InclinationBandSchema.optional(),
   vein: VeinFilterSchema.optional(),
 })

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { uuidField } from './fields.ts'
 
 /** The image types a photo may have, checked on the file's own bytes (never its name or the sender's MIME type). */
 export const ATTACHMENT_MIME_TYPES = ['image/jpeg', 'image/png', 'image/webp'] as const
@@ -13,7 +14,7 @@ export const ATTACHMENTS_PER_EXAM = 4
 export const AttachmentUploadFieldsSchema = z.object({
   consent: z.literal('true', { message: 'Confirm that the patient consented to the photo' }),
   /** An id made by the client, so an upload retried after a lost answer stores one photo, not two. */
-  id: z.uuid({ message: 'Send a UUID or leave the id out' }).optional(),
+  id: uuidField('Send a UUID or leave the id out').optional(),
 })
 
 /** A stored photo of an exam's measurement set-up, as the API answers it. */

@@ -1,6 +1,7 @@
 import { z } from 'zod'
+import { clientTime, idField, lineField } from './fields.ts'
 
-const isoDateTime = z.iso.datetime({ offset: true, message: 'Use an ISO 8601 date-time' })
+const isoDateTime = clientTime('Use an ISO 8601 date-time')
 
 /** One entry of the append-only trail; `changes` holds `{ field: { from, to } }` for changed fields, or other details. */
 export const AuditEventSchema = z.object({
@@ -16,10 +17,10 @@ export const AuditEventSchema = z.object({
 export type AuditEvent = z.infer<typeof AuditEventSchema>
 
 export const AuditQuerySchema = z.object({
-  actorId: z.string().optional(),
-  action: z.string().max(60).optional(),
-  entityType: z.string().max(40).optional(),
-  entityId: z.string().max(64).optional(),
+  actorId: idField('Choose a person').optional(),
+  action: lineField(60).optional(),
+  entityType: lineField(40).optional(),
+  entityId: idField('Give a record id').optional(),
   from: isoDateTime.optional(),
   to: isoDateTime.optional(),
   page: z.coerce.number().int().min(1).default(1),

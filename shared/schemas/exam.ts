@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { clientTime, idField, lineField, textField, uuidField } from './fields.ts'
 import { SignatureSchema } from './signature.ts'
 import { ApiErrorSchema } from './user.ts'
 
@@ -69,7 +70,8 @@ function allSigns(given: Partial<Record<VenousSign, VenousSignState>>): VenousSi
 /** The older list form, still sent by devices and read from stored records: each listed sign was present. */
 function fromSignList(value: unknown): unknown {
   if (!Array.isArray(value)) return value
-  return Object.fromEntries(value.map((sign) => [String(sign), 'present']))
+  // A sign that is not text cannot be read; '' is no sign, so the record is refused with a field message.
+  return Object.fromEntries(value.map((sign) => [typeof sign === 'string' ? sign : '', 'present']))
 }
 
 /** The venous signs keyed by sign (`{"not-palpable":"present"}`), or the older list of present signs. */
@@ -103,7 +105,7 @@ const findingsFields = {
   respiratory: RespiratorySchema,
   abdominojugular: AbdominojugularSchema,
   notAssessableReason: NotAssessableReasonSchema.nullish(),
-  notAssessableText: z.string().trim().max(200, 'The reason is at most 200 characters').nullish(),
+  notAssessableText: textField(200, 'The reason is at most 200 characters').trim().nullish(),
   context: z.array(ContextFlagSchema).max(3).transform((flags) => [...new Set(flags)]),
 }
 
@@ -179,13 +181,13 @@ export const PatientCodeSchema = z
   .regex(/^[A-Za-z0-9-]+$/, 'Use letters, digits and “-” only (never a name)')
 
 const recordFields = {
-  id: z.uuid('The record id must be a UUID'),
+  id: uuidField('The record id must be a UUID'),
   patientCode: PatientCodeSchema,
-  teamId: z.string('Choose a team').min(1, 'Choose a team'),
-  examinedAt: z.iso.datetime({ offset: true, message: 'Enter the time of the exam' }),
-  notes: z.string().max(2000, 'Notes are at most 2,000 characters'),
+  teamId: idField('Choose a team'),
+  examinedAt: clientTime('Enter the time of the exam'),
+  notes: textField(2000, 'Notes are at most 2,000 characters'),
   /** The calibration round this exam is an entry of; null or absent for an ordinary exam. */
-  roundId: z.string().min(1, 'Choose a calibration round').max(64, 'Choose a calibration round').nullish(),
+  roundId: idField('Choose a calibration round').nullish(),
 }
 
 const recordShape = { ...recordFields, notes: recordFields.notes.default(''), ...ExamFindingsShape }
@@ -362,6 +364,12 @@ export const StoredEstimateSchema = z.union([
 
 export const ExamSchema = z.object({
   ...recordShape,
+  // As stored: a record saved before a field's rules were tightened still reads back.
+  teamId: z.string(),
+  examinedAt: z.string(),
+  notes: z.string().default(''),
+  roundId: z.string().nullish(),
+  notAssessableText: z.string().nullish(),
   id: z.string(),
   examinerId: z.string(),
   examinerName: z.string(),
@@ -383,11 +391,11 @@ export const ExamSortSchema = z.enum(['examinedAt', 'patientCode', 'status', 'he
 
 export const ExamListQuerySchema = z.object({
   status: ExamStatusSchema.optional(),
-  teamId: z.string().optional(),
-  examinerId: z.string().optional(),
-  patientCode: z.string().trim().max(40).optional(),
-  from: z.iso.datetime({ offset: true, message: 'Use an ISO 8601 date-time' }).optional(),
-  to: z.iso.datetime({ offset: true, message: 'Use an ISO 8601 date-time' }).optional(),
+  teamId: idField('Choose a team').optional(),
+  examinerId: idField('Choose an examiner').optional(),
+  patientCode: lineField(40).optional(),
+  from: clientTime('Use an ISO 8601 date-time').optional(),
+  to: clientTime('Use an ISO 8601 date-time').optional(),
   sort: ExamSortSchema.default('examinedAt'),
   order: z.enum(['asc', 'desc']).default('desc'),
   page: z.coerce.number().int().min(1).default(1),

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { LandisKochLabelSchema, UnavailableSchema } from './agreement.ts'
 import { PatientCodeSchema } from './exam.ts'
+import { idField } from './fields.ts'
 
 /** The most patient codes and examiners one round may name. */
 export const ROUND_MAX_CODES = 40
@@ -32,7 +33,7 @@ export const RoundCreateSchema = z
       .min(1, 'Name at least one patient code')
       .max(ROUND_MAX_CODES, `A round takes at most ${ROUND_MAX_CODES} patient codes`),
     examinerIds: z
-      .array(z.string().min(1, 'Choose an examiner'), 'Choose the examiners')
+      .array(idField('Choose an examiner'), 'Choose the examiners')
       .min(2, 'Choose at least two examiners: agreement needs two or more')
       .max(ROUND_MAX_EXAMINERS, `A round takes at most ${ROUND_MAX_EXAMINERS} examiners`),
   })

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { ExamSchema } from './exam.ts'
+import { lowerUuid } from './fields.ts'
 
 /** At most this many changes travel in one push; a longer batch is answered 413. */
 export const SYNC_PUSH_LIMIT = 200
@@ -8,7 +9,7 @@ export const SYNC_PULL_LIMIT = 500
 
 export const SyncChangeSchema = z.object({
   /** The whole record as the client holds it; checked item by item, so one bad record does not fail the batch. */
-  exam: z.looseObject({ id: z.string('Each change needs the exam id').min(1).max(64) }),
+  exam: z.looseObject({ id: z.string('Each change needs the exam id').transform(lowerUuid) }),
   /** The server version the change was made on; null or 0 for an exam the server has never acknowledged. */
   baseVersion: z.number().int().min(0).nullable().default(null),
 })
