@@ -88,7 +88,8 @@ export const AccuracyPointSchema = z.object({
   estimateCmH2O: z.number(),
   referenceCmH2O: z.number(),
   bound: BoundSchema,
-  band: interval.nullable(),
+  /** The stored 95% band; a bound's open side is null (a lower bound [low, null], an upper bound [null, high]). */
+  band: z.tuple([z.number().nullable(), z.number().nullable()]),
   inside: z.boolean(),
 })
 export type AccuracyPoint = z.infer<typeof AccuracyPointSchema>
@@ -97,7 +98,8 @@ export type AccuracyPoint = z.infer<typeof AccuracyPointSchema>
  * Accuracy of the estimate against measured pressures: difference = estimate − reference (cmH₂O), Bland–Altman bias,
  * SD and 95% limits (Bland & Altman 1986, Lancet i:307–310); coverage = references inside the exam's stored 95% band
  * (a bound counts when the reference lies on its open side), with the Wilson score interval (Wilson 1927, JASA
- * 22:209–212; Newcombe 1998, Stat Med 17:857–872, method 3). Bias, sd and loa are null below 2 pairs.
+ * 22:209–212; Newcombe 1998, Stat Med 17:857–872, method 3). `n` counts the pairs with a point estimate (a bound has
+ * no difference to take); `coverage.n` counts every pair. Bias, sd and loa are null below 2 point pairs.
  */
 export const AccuracySummarySchema = z.object({
   n: z.number().int(),
