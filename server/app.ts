@@ -15,11 +15,14 @@ import { examsRouter } from './exams/exams.routes.ts'
 import { exportsRouter } from './exports/exports.routes.ts'
 import type { FakeSmtp } from './mail/fake-smtp.ts'
 import { mailboxRouter } from './mail/mailbox.routes.ts'
+import { learningRouter } from './learning/learning.routes.ts'
 import type { Mailer } from './mail/mailer.ts'
 import type { Models } from './models/index.ts'
 import { requireAuth, requireRole } from './middleware/auth.ts'
 import { errorHandler } from './middleware/error-handler.ts'
 import { bodyGuard, pathAndQueryGuard } from './middleware/input-guard.ts'
+import { patientsRouter } from './patients/patients.routes.ts'
+import { accuracyRouter, referencesRouter } from './references/references.routes.ts'
 import { rosterRouter } from './roster/roster.routes.ts'
 import { adminSettingsRouter, settingsRouter } from './settings/settings.routes.ts'
 import { roundsRouter } from './rounds/rounds.routes.ts'
@@ -97,7 +100,10 @@ export function createApp(deps: AppDeps): Express {
   )
   app.use('/api/auth', accountAuthRouter({ log: deps.log, mailer: deps.mailer, baseUrl: deps.baseUrl }))
   app.use('/api/mailbox', requireAuth(deps.secret), requireRole('admin'), mailboxRouter(deps.mailbox))
+  app.use('/api/agreement/accuracy', requireAuth(deps.secret), accuracyRouter())
+  app.use('/api/agreement/mine', requireAuth(deps.secret), learningRouter({ secret: deps.secret }))
   app.use('/api/agreement', requireAuth(deps.secret), agreementRouter({ secret: deps.secret }))
+  app.use('/api/patients', requireAuth(deps.secret), patientsRouter())
   app.use('/api/sync', requireAuth(deps.secret), syncRouter({ secret: deps.secret }))
   app.use('/api/rounds', requireAuth(deps.secret), roundsRouter({ secret: deps.secret }))
   app.use('/api/settings', requireAuth(deps.secret), settingsRouter())
@@ -106,6 +112,7 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api', attachmentsRouter({ secret: deps.secret, dir: deps.attachmentsDir }))
   const exams = { secret: deps.secret, log: deps.log, mailer: deps.mailer, baseUrl: deps.baseUrl }
   app.use('/api', requireAuth(deps.secret), usersRouter(), examsRouter(exams), supervisionRouter(exams), auditTrailRouter(exams))
+  app.use('/api', requireAuth(deps.secret), referencesRouter())
   app.use('/api', requireAuth(deps.secret), exportsRouter({ secret: deps.secret }))
   app.use('/api', requireAuth(deps.secret), accountsRouter({ mailer: deps.mailer, baseUrl: deps.baseUrl }))
   app.use('/api', () => {

@@ -16,6 +16,7 @@ import * as agreementPairBounds from './migrations/2026.12.10T09.30.00.agreement
 import * as agreementPairCoveringIndexes from './migrations/2026.12.11T08.00.00.agreement-pair-covering-indexes.ts'
 import * as auditChain from './migrations/2026.12.11T10.00.00.audit-chain.ts'
 import * as mailOutbox from './migrations/2026.12.11T10.30.00.mail-outbox.ts'
+import * as references from './migrations/2026.12.11T11.00.00.references.ts'
 
 interface MigrationModule {
   up(q: QueryInterface): Promise<void>
@@ -40,6 +41,7 @@ const migrations: [string, MigrationModule][] = [
   ['2026.12.11T08.00.00.agreement-pair-covering-indexes', agreementPairCoveringIndexes],
   ['2026.12.11T10.00.00.audit-chain', auditChain],
   ['2026.12.11T10.30.00.mail-outbox', mailOutbox],
+  ['2026.12.11T11.00.00.references', references],
 ]
 
 /** Every migration's name, oldest first. */

@@ -7,6 +7,8 @@ import { MembershipModel, TeamModel, UserModel } from '../models/index.ts'
 import { seedDemoExams } from './demo-exams.ts'
 import { seedDemoPairs } from './demo-pairs.ts'
 import { seedDemoRound } from './demo-rounds.ts'
+import { seedDemoLoop } from './demo-loop.ts'
+import { seedDemoReferences } from './demo-references.ts'
 
 export const DEMO_PASSWORD = 'bedside-demo'
 
@@ -72,5 +74,7 @@ export async function seedDemo(): Promise<{ created: number; exams: number }> {
   const exams = await seedDemoExams(teamIds)
   await seedDemoPairs(teamIds)
   await seedDemoRound(teamIds)
+  await seedDemoLoop(teamIds)
+  await seedDemoReferences(new Map([...teamIds].map(([name, id]) => [id, name])))
   return { created, exams }
 }

@@ -19,6 +19,11 @@ export interface ExamScope {
   unblinded?: Where | null
   /** Entries of closed rounds the reader examined in: readable one by one (not listed, not pulled), with their codes. */
   roundPeers?: Where | null
+  /**
+   * A patient's course as the ward follows it (the patient timeline): the clinical scope and, for residents, the
+   * non-drafts filed to their own teams, since the team looks after the patient together. Null: none.
+   */
+  care?: Where | null
 }
 
 const notDraft: Where = { status: { [Op.ne]: 'draft' } }
@@ -39,7 +44,9 @@ export async function scopeOf(user: User): Promise<ExamScope> {
   const programWhere: Where | null = roles.has('educator') ? notDraft : null
   // Entries of open calibration rounds are their authors' alone until the round closes (server/rounds/round-blinding.ts).
   const blind = await blindingClause(user.id)
+  const teamCare: Where | null = roles.has('resident') && teamIds.size ? { ...notDraft, teamId: { [Op.in]: [...teamIds] } } : null
   return {
+    care: blinded(teamCare && clinicalWhere ? { [Op.or]: [clinicalWhere, teamCare] } : clinicalWhere, blind),
     clinical: blinded(clinicalWhere, blind),
     program: blinded(programWhere, blind),
     unblinded: readable({ clinical: clinicalWhere, program: programWhere, showsCode: () => false }),

@@ -30,6 +30,8 @@ export function columnsOf(input: ExamInput, estimate: Estimate) {
     estimate: JSON.stringify(estimate),
     verticalHeightCm: estimate.heightCm,
     cvpCmH2O: estimate.cvpCmH2O,
+    bandLowCmH2O: estimate.bandCmH2O?.[0] ?? null,
+    bandHighCmH2O: estimate.bandCmH2O?.[1] ?? null,
   }
 }
 

@@ -38,9 +38,30 @@ export function examReturned(p: TemplateContext & { to: string; attendingName: s
   }
 }
 
+/** The attending's own reading and teaching feedback given with a countersignature, as the e-mail words them. */
+export interface TeachingText {
+  /** e.g. "column top 6 cm above the sternal angle at 45°, CVP 13.1 cmH₂O; your estimate minus theirs: −2.0 cmH₂O" */
+  reading: string | null
+  feedback: string[]
+}
+
+function teachingParagraphs(p: { signerName: string; teaching?: TeachingText; exam: ExamRef }): string[] {
+  if (!p.teaching) return []
+  const reading = p.teaching.reading ? [`${p.signerName} examined the patient too: ${p.teaching.reading}.`] : []
+  const feedback = p.teaching.feedback.map((line) => `- ${scrub(line, p.exam.patientCode)}`)
+  return [...reading, ...(feedback.length ? [`Feedback from ${p.signerName}:\n${feedback.join('\n')}`] : [])]
+}
+
 /** To the resident, when an attending countersigns their exam. */
 export function examCountersigned(
-  p: TemplateContext & { to: string; signerName: string; meaning: SignatureMeaning; signedAt: Date | string; exam: ExamRef },
+  p: TemplateContext & {
+    to: string
+    signerName: string
+    meaning: SignatureMeaning
+    signedAt: Date | string
+    exam: ExamRef
+    teaching?: TeachingText
+  },
 ): MailMessage {
   return {
     template: 'exam-countersigned',
@@ -49,6 +70,7 @@ export function examCountersigned(
     text: body(
       `${p.signerName} countersigned ${examText(p.exam, p.timeZone)}.`,
       `Signed by ${p.signerName}, ${dateTimeText(p.signedAt, p.timeZone)}, meaning: ${MEANING_TEXT[p.meaning]}.`,
+      ...teachingParagraphs(p),
       `See the signed record in Plumbline: ${examLink(p.baseUrl, p.exam)}`,
       AID_NOTE,
     ),

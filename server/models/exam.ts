@@ -33,6 +33,9 @@ export class ExamModel extends Model<InferAttributes<ExamModel>, InferCreationAt
   declare estimate: string
   declare verticalHeightCm: number | null
   declare cvpCmH2O: number | null
+  /** The stored 95% band's ends (estimate.bandCmH2O), null on a bound's open side or without an estimate. */
+  declare bandLowCmH2O: CreationOptional<number | null>
+  declare bandHighCmH2O: CreationOptional<number | null>
   declare submittedAt: Date | null
   declare returnComment: CreationOptional<string | null>
   /** The calibration round this exam is an entry of, if any. */
@@ -77,6 +80,8 @@ export function initExamModel(sequelize: Sequelize): void {
       estimate: DataTypes.TEXT,
       verticalHeightCm: measure,
       cvpCmH2O: measure,
+      bandLowCmH2O: measure,
+      bandHighCmH2O: measure,
       submittedAt: DataTypes.DATE,
       returnComment: DataTypes.TEXT,
       roundId: DataTypes.STRING,

@@ -7,6 +7,7 @@ import { UserModel, UserRoleModel, initUserModels, withRole } from './user.ts'
 import { AgreementPairModel, initAgreementPairModel } from './agreement-pair.ts'
 import { AttachmentModel, initAttachmentModel } from './attachment.ts'
 import { SettingsVersionModel, initSettingsVersionModel } from './settings-version.ts'
+import { ReferenceModel, initReferenceModel } from './reference.ts'
 
 export { UserModel, UserRoleModel, withRole }
 export { ExamModel }
@@ -16,6 +17,7 @@ export { AccountLinkModel }
 export { AgreementPairModel }
 export { AttachmentModel }
 export { SettingsVersionModel }
+export { ReferenceModel }
 
 export class TeamModel extends Model<InferAttributes<TeamModel>, InferCreationAttributes<TeamModel>> {
   declare id: string
@@ -102,6 +104,7 @@ export function initModels(sequelize: Sequelize) {
   initAgreementPairModel(sequelize)
   initAttachmentModel(sequelize)
   initSettingsVersionModel(sequelize)
+  initReferenceModel(sequelize)
   return {
     UserModel,
     UserRoleModel,
@@ -118,5 +121,6 @@ export function initModels(sequelize: Sequelize) {
     AgreementPairModel,
     AttachmentModel,
     SettingsVersionModel,
+    ReferenceModel,
   }
 }

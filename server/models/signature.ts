@@ -1,4 +1,4 @@
-import { DataTypes, Model, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
 
 /** An electronic countersignature; append-only in the database (only `supersededAt` may be set, once). */
 export class SignatureModel extends Model<InferAttributes<SignatureModel>, InferCreationAttributes<SignatureModel>> {
@@ -12,6 +12,11 @@ export class SignatureModel extends Model<InferAttributes<SignatureModel>, Infer
   declare content: string
   declare contentHash: string
   declare supersededAt: Date | null
+  /** With `reviewed-re-examined`: the attending's own exam of the patient. Not part of the signed content. */
+  declare readingExamId: CreationOptional<string | null>
+  /** JSON list of feedback codes, or null. */
+  declare feedback: CreationOptional<string | null>
+  declare feedbackText: CreationOptional<string | null>
 }
 
 export function initSignatureModel(sequelize: Sequelize): void {
@@ -28,6 +33,9 @@ export function initSignatureModel(sequelize: Sequelize): void {
       content: DataTypes.TEXT,
       contentHash: text,
       supersededAt: DataTypes.DATE,
+      readingExamId: text,
+      feedback: DataTypes.TEXT,
+      feedbackText: DataTypes.TEXT,
     },
     { sequelize, tableName: 'signatures', timestamps: false },
   )

@@ -1,4 +1,4 @@
-import { Op } from 'sequelize'
+import { Op, type Transaction } from 'sequelize'
 import type { Exam } from '#shared/schemas/exam'
 import type { CountersignInput, Signature } from '#shared/schemas/signature'
 import type { User } from '#shared/schemas/user'
@@ -9,7 +9,10 @@ import { changesBetween, snapshotOf } from '../exams/exam-changes.ts'
 import { presentOwn } from '../exams/exam-record.ts'
 import { inTransaction } from '../exams/exam-writes.ts'
 import { ATTEMPT_WINDOW_MS } from '../middleware/rate-limit.ts'
-import { AuditEventModel, UserModel } from '../models/index.ts'
+import { AuditEventModel, UserModel, type ExamModel } from '../models/index.ts'
+import { invalidateObserverTerm } from '../agreement/observer-term.ts'
+import { estimateContext } from '../settings/settings-estimate.ts'
+import { readingTime, teachingAudit, teachingFor, type ReadingTimes } from './attending-reading.ts'
 import { checkSubmitted, reviewedRow } from './review-access.ts'
 import { recordSignature } from './signatures.ts'
 
@@ -36,21 +39,43 @@ export interface Countersigned {
 
 /** Signs the submitted version as it stands and locks it; the version number stays, since the content does not change. */
 export async function countersignExam(signer: User, id: string, input: CountersignInput): Promise<Countersigned> {
+  const signedAt = new Date()
+  const examinedAt = input.attendingReading ? readingTime(input.attendingReading, signedAt) : signedAt
   // Checked before the slow password hash, and again under the write lock in case the exam moved meanwhile.
   await checkSubmitted(await reviewedRow(signer, id), input.baseVersion)
   await checkPassword(signer, id, input.password)
+  const context = await estimateContext()
   const row = await inTransaction(async (transaction) => {
     const row = await reviewedRow(signer, id, transaction)
     await checkSubmitted(row, input.baseVersion)
-    const before = snapshotOf(row)
-    row.status = 'countersigned'
-    await row.save({ transaction })
-    const s = await recordSignature(row, signer, input.meaning, transaction)
-    const signature = { from: null, to: { id: s.id, meaning: s.meaning, examVersion: s.examVersion, hash: s.contentHash } }
-    const changes = { ...changesBetween(before, snapshotOf(row)), signature }
-    await audit({ actorId: signer.id, action: 'exam-countersign', entityType: 'exam', entityId: row.id, changes }, { transaction })
-    return row
+    return applyCountersignature(signer, row, input, { signedAt, examinedAt, context }, transaction)
   })
+  // The reading may form a new pair, which moves the local observer spread.
+  if (input.attendingReading) invalidateObserverTerm()
   const exam = await presentOwn(row)
   return { exam, signature: exam.signatures!.at(-1)! }
+}
+
+/**
+ * Locks the checked, submitted row as countersigned with the signature, the attending's reading and the feedback, and
+ * audits it, in the caller's transaction. The password was checked by the caller.
+ */
+export async function applyCountersignature(
+  signer: User,
+  row: ExamModel,
+  input: Omit<CountersignInput, 'password'>,
+  at: ReadingTimes,
+  transaction: Transaction,
+): Promise<ExamModel> {
+  const before = snapshotOf(row)
+  row.status = 'countersigned'
+  await row.save({ transaction })
+  const s = await recordSignature(row, signer, input.meaning, transaction, await teachingFor(signer, row, input, at, transaction))
+  const signature = {
+    from: null,
+    to: { id: s.id, meaning: s.meaning, examVersion: s.examVersion, hash: s.contentHash, ...teachingAudit(s) },
+  }
+  const changes = { ...changesBetween(before, snapshotOf(row)), signature }
+  await audit({ actorId: signer.id, action: 'exam-countersign', entityType: 'exam', entityId: row.id, changes }, { transaction })
+  return row
 }

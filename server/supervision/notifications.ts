@@ -5,6 +5,7 @@ import type { Signature } from '#shared/schemas/signature'
 import type { User } from '#shared/schemas/user'
 import type { MailDeps, MailMessage } from '../mail/mailer.ts'
 import { countersignRequested, examCountersigned, examReturned, type ExamRef } from '../mail/templates.ts'
+import { teachingText } from './teaching-text.ts'
 import { UserModel } from '../models/index.ts'
 import { membersOf } from '../users/team-members.ts'
 import { rolesOf } from '../users/users.service.ts'
@@ -73,7 +74,8 @@ export function createNotifier({ mailer, log, baseUrl }: NotifierOptions): Notif
         async () => {
           const to = await emailOf(exam.examinerId, transaction)
           const { signerName, meaning, signedAt, timeZone } = s
-          return to ? examCountersigned({ baseUrl, timeZone, to, signerName, meaning, signedAt, exam: refOf(exam) }) : null
+          const teaching = teachingText(s)
+          return to ? examCountersigned({ baseUrl, timeZone, to, signerName, meaning, signedAt, exam: refOf(exam), teaching }) : null
         },
         transaction,
       ),

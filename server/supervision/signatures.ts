@@ -1,13 +1,28 @@
 import { randomUUID } from 'node:crypto'
 import { Op, type Transaction } from 'sequelize'
-import { SignatureSchema, type Signature, type SignatureMeaning } from '#shared/schemas/signature'
+import { SignatureSchema, type FeedbackCode, type Signature, type SignatureMeaning } from '#shared/schemas/signature'
 import type { User } from '#shared/schemas/user'
-import { SignatureModel, type ExamModel } from '../models/index.ts'
+import { ExamModel, SignatureModel } from '../models/index.ts'
+import { teachingOf } from './signature-teaching.ts'
 import { sha256, signedContent } from './signed-content.ts'
 import { isoInZone, serverTimeZone } from './time-zone.ts'
 
+/** What a signature carries beside the signed content: the attending's reading and teaching feedback, never hashed. */
+export interface SignatureTeaching {
+  signedAt?: Date
+  readingExamId?: string | null
+  feedback?: readonly FeedbackCode[]
+  feedbackText?: string | null
+}
+
 /** Binds a new signature to the row's current version, stamped with the server's clock. */
-export async function recordSignature(row: ExamModel, signer: User, meaning: SignatureMeaning, transaction: Transaction) {
+export async function recordSignature(
+  row: ExamModel,
+  signer: User,
+  meaning: SignatureMeaning,
+  transaction: Transaction,
+  teaching: SignatureTeaching = {},
+) {
   const content = signedContent(row)
   return SignatureModel.create(
     {
@@ -17,10 +32,13 @@ export async function recordSignature(row: ExamModel, signer: User, meaning: Sig
       signerId: signer.id,
       signerName: signer.displayName,
       meaning,
-      signedAt: new Date(),
+      signedAt: teaching.signedAt ?? new Date(),
       content,
       contentHash: sha256(content),
       supersededAt: null,
+      readingExamId: teaching.readingExamId ?? null,
+      feedback: teaching.feedback?.length ? JSON.stringify(teaching.feedback) : null,
+      feedbackText: teaching.feedbackText || null,
     },
     { transaction },
   )
@@ -43,7 +61,7 @@ export function verifySignature(signature: SignatureModel, row: ExamModel): bool
   return signature.examId === row.id && sha256(content) === signature.contentHash
 }
 
-export function manifestation(signature: SignatureModel, row: ExamModel, timeZone = serverTimeZone()): Signature {
+export function manifestation(signature: SignatureModel, row: ExamModel, timeZone = serverTimeZone(), reading?: ExamModel): Signature {
   return SignatureSchema.parse({
     id: signature.id,
     examId: signature.examId,
@@ -57,6 +75,7 @@ export function manifestation(signature: SignatureModel, row: ExamModel, timeZon
     superseded: signature.supersededAt !== null,
     supersededAt: signature.supersededAt && isoInZone(signature.supersededAt, timeZone),
     valid: verifySignature(signature, row),
+    ...teachingOf(signature, row, reading),
   })
 }
 
@@ -67,7 +86,13 @@ export async function signaturesOf(rows: ExamModel[]): Promise<Map<string, Signa
     where: { examId: { [Op.in]: [...byId.keys()] } },
     order: [['signedAt', 'ASC'], ['id', 'ASC']],
   })
+  const readingIds = signatures.flatMap((s) => (s.readingExamId ? [s.readingExamId] : []))
+  const readings = readingIds.length ? await ExamModel.findAll({ where: { id: { [Op.in]: readingIds } } }) : []
+  const readingById = new Map(readings.map((r) => [r.id, r]))
   const result = new Map<string, Signature[]>()
-  for (const s of signatures) result.set(s.examId, [...(result.get(s.examId) ?? []), manifestation(s, byId.get(s.examId)!)])
+  for (const s of signatures) {
+    const signature = manifestation(s, byId.get(s.examId)!, undefined, s.readingExamId ? readingById.get(s.readingExamId) : undefined)
+    result.set(s.examId, [...(result.get(s.examId) ?? []), signature])
+  }
   return result
 }

@@ -1,14 +1,20 @@
-import { Op, type WhereOptions } from 'sequelize'
+import { literal, Op, type WhereOptions } from 'sequelize'
 import type { SignoffQueue, SignoffQueueQuery } from '#shared/schemas/signoff-queue'
 import type { User } from '#shared/schemas/user'
 import { present } from '../exams/exam-record.ts'
 import { ExamModel } from '../models/index.ts'
 import { blinded, blindingClause } from '../rounds/round-blinding.ts'
 import { teamIdsOf } from '../users/team-members.ts'
+import { READING_EXAM_IDS } from './review-access.ts'
 
 /** What the attending may countersign: submitted exams filed to their teams, by anyone but themselves. */
 async function waitingFor(attending: User): Promise<WhereOptions<ExamModel>> {
-  const waiting = { status: 'submitted', teamId: { [Op.in]: teamIdsOf(attending) }, examinerId: { [Op.ne]: attending.id } }
+  const waiting = {
+    status: 'submitted',
+    teamId: { [Op.in]: teamIdsOf(attending) },
+    examinerId: { [Op.ne]: attending.id },
+    id: { [Op.notIn]: literal(READING_EXAM_IDS) },
+  }
   // Entries of an open calibration round join the queue once the round closes (blinding, server/rounds).
   return blinded(waiting, await blindingClause(attending.id))!
 }

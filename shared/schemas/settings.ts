@@ -42,6 +42,9 @@ export const DEFAULT_ESTIMATE_SETTINGS: EstimateSettings = EstimateSettingsSchem
 /** Bounds of the pairing window for paired exams: a quarter of an hour to a day. */
 export const PAIR_WINDOW_MINUTES = { min: 15, max: 1440, default: 120 } as const
 
+/** Bounds of the reference window: how far a measured pressure may be from its exam to form an accuracy pair. */
+export const REFERENCE_WINDOW_MINUTES = { min: 5, max: 240, default: 60 } as const
+
 const appFields = {
   estimate: z.object(estimateFields, 'Send the estimate settings'),
   pairWindowMinutes: z
@@ -49,6 +52,11 @@ const appFields = {
     .int('Enter a whole number of minutes')
     .min(PAIR_WINDOW_MINUTES.min, `The pairing window is at least ${PAIR_WINDOW_MINUTES.min} minutes`)
     .max(PAIR_WINDOW_MINUTES.max, `The pairing window is at most ${PAIR_WINDOW_MINUTES.max} minutes (one day)`),
+  referenceWindowMinutes: z
+    .number('Enter the reference window in minutes')
+    .int('Enter a whole number of minutes')
+    .min(REFERENCE_WINDOW_MINUTES.min, `The reference window is at least ${REFERENCE_WINDOW_MINUTES.min} minutes`)
+    .max(REFERENCE_WINDOW_MINUTES.max, `The reference window is at most ${REFERENCE_WINDOW_MINUTES.max} minutes`),
   defaultOffsetModel: OffsetModelSchema,
   photosAllowed: z.boolean('Say whether photos are allowed'),
 }
@@ -79,6 +87,8 @@ export type AppSettings = z.infer<typeof AppSettingsSchema>
 export const DEFAULT_APP_SETTINGS: AppSettings = {
   estimate: DEFAULT_ESTIMATE_SETTINGS,
   pairWindowMinutes: PAIR_WINDOW_MINUTES.default,
+  // Product default: a measured pressure within an hour of the exam is taken as contemporaneous (no published source).
+  referenceWindowMinutes: REFERENCE_WINDOW_MINUTES.default,
   defaultOffsetModel: 'incline-adjusted',
   photosAllowed: false,
 }

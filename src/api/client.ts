@@ -34,3 +34,11 @@ export async function readApiError(e: unknown): Promise<ReadableError> {
   const { code, message, fields = {} } = body.data.error
   return { status, code, message, fields }
 }
+
+// A proxy or gateway answering for a server it cannot reach: as good as no network.
+const GATEWAY_STATUSES = new Set([502, 503, 504])
+
+/** The server was not reached (no network, or a gateway answering for it), rather than refusing. */
+export function serverUnreachable(e: unknown): boolean {
+  return !isHTTPError(e) || GATEWAY_STATUSES.has(e.response.status)
+}

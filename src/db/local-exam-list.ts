@@ -59,3 +59,13 @@ export async function unsentExams(authorId: string): Promise<Record<string, Unse
   }
   return states
 }
+
+/** The device's copies of one patient's exams, oldest first, for the timeline with no network. */
+export async function localExamsOfPatient(ownerId: string, patientCode: string): Promise<Exam[]> {
+  const rows = await db.exams.where('ownerId').equals(ownerId).toArray()
+  const exams = rows.flatMap((row) => {
+    const parsed = LocalExamSchema.safeParse(row)
+    return parsed.success && parsed.data.patientCode === patientCode ? [parsed.data] : []
+  })
+  return exams.sort((a, b) => Date.parse(a.examinedAt) - Date.parse(b.examinedAt))
+}

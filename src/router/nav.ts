@@ -17,6 +17,7 @@ export const navItems: NavItem[] = [
   { label: 'Exam log', icon: 'mdi-clipboard-text-clock-outline', routeName: 'exams', roles: CLINICAL_ROLES },
   { label: 'Sign-off queue', icon: 'mdi-draw-pen', routeName: 'signoff-queue', roles: ['attending'], badge: 'signoff-count' },
   { label: 'Agreement', icon: 'mdi-chart-scatter-plot', routeName: 'agreement', roles: CLINICAL_ROLES },
+  { label: 'My agreement', icon: 'mdi-school-outline', routeName: 'my-agreement', roles: ['resident', 'attending'] },
   { label: 'Calibration rounds', icon: 'mdi-target-account', routeName: 'rounds', roles: CLINICAL_ROLES },
   { label: 'Teams', icon: 'mdi-account-group-outline', routeName: 'teams', roles: CLINICAL_ROLES },
   { label: 'Accounts', icon: 'mdi-shield-account-outline', routeName: 'accounts', roles: ['admin'] },

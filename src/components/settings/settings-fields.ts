@@ -1,9 +1,14 @@
-import { DEFAULT_APP_SETTINGS, PAIR_WINDOW_MINUTES, type AppSettings } from '#shared/schemas/settings'
+import { DEFAULT_APP_SETTINGS, PAIR_WINDOW_MINUTES, REFERENCE_WINDOW_MINUTES, type AppSettings } from '#shared/schemas/settings'
 import type { OffsetModel } from '#shared/schemas/exam'
 
 /** A numeric setting as the admin screen shows it; `path` is also the key of its field error. */
+/** The numeric settings that sit at the top level of the settings rather than under `estimate`. */
+type WindowPath = 'pairWindowMinutes' | 'referenceWindowMinutes'
+const WINDOW_PATHS: readonly string[] = ['pairWindowMinutes', 'referenceWindowMinutes'] satisfies WindowPath[]
+const isWindow = (path: string): path is WindowPath => WINDOW_PATHS.includes(path)
+
 export interface NumberSetting {
-  path: `estimate.${keyof AppSettings['estimate']}` | 'pairWindowMinutes'
+  path: `estimate.${keyof AppSettings['estimate']}` | WindowPath
   label: string
   unit: string
   step: number
@@ -41,8 +46,17 @@ export const SETTING_GROUPS: SettingGroup[] = [
   },
   {
     title: 'Agreement',
-    description: 'Which exams of one patient by two examiners count as a pair.',
-    fields: [{ path: 'pairWindowMinutes', label: 'Pairing window', unit: 'minutes', step: 5, source: `product default, between ${PAIR_WINDOW_MINUTES.min} and ${PAIR_WINDOW_MINUTES.max}` }],
+    description: 'Which exams of one patient by two examiners count as a pair, and which measured pressure pairs with an exam.',
+    fields: [
+      { path: 'pairWindowMinutes', label: 'Pairing window', unit: 'minutes', step: 5, source: `product default, between ${PAIR_WINDOW_MINUTES.min} and ${PAIR_WINDOW_MINUTES.max}` },
+      {
+        path: 'referenceWindowMinutes',
+        label: 'Reference window (measured pressure to exam)',
+        unit: 'minutes',
+        step: 5,
+        source: `product default, between ${REFERENCE_WINDOW_MINUTES.min} and ${REFERENCE_WINDOW_MINUTES.max}`,
+      },
+    ],
   },
 ]
 
@@ -53,15 +67,17 @@ export const OFFSET_MODEL_CHOICES: { value: OffsetModel; title: string }[] = [
 
 const OTHER_LABELS: Record<string, string> = { defaultOffsetModel: 'Default offset model', photosAllowed: 'Photos allowed' }
 
+const estimateKey = (path: NumberSetting['path']) => path.slice('estimate.'.length) as keyof AppSettings['estimate']
+
 /** A setting's value by its path. */
 export function valueAt(values: AppSettings, path: NumberSetting['path']): number {
-  return path === 'pairWindowMinutes' ? values.pairWindowMinutes : values.estimate[path.slice('estimate.'.length) as keyof AppSettings['estimate']]
+  return isWindow(path) ? values[path] : values.estimate[estimateKey(path)]
 }
 
 /** A copy of the settings with one numeric value replaced (null while the field is empty). */
 export function withValueAt(values: AppSettings, path: NumberSetting['path'], value: number | null): AppSettings {
-  if (path === 'pairWindowMinutes') return { ...values, pairWindowMinutes: value as number }
-  return { ...values, estimate: { ...values.estimate, [path.slice('estimate.'.length)]: value } }
+  if (isWindow(path)) return { ...values, [path]: value as number }
+  return { ...values, estimate: { ...values.estimate, [estimateKey(path)]: value } }
 }
 
 export function defaultText(field: NumberSetting): string {

@@ -37,10 +37,10 @@ describe('navigation by role', () => {
     for (const wrapper of mounted.splice(0)) wrapper.unmount()
   })
 
-  it('a resident sees home, recording, the exam log, agreement, rounds and teams but not accounts', () => {
+  it('a resident sees home, recording, the exam log, agreement, their own agreement, rounds and teams but not accounts', () => {
     const names = navItemsFor(['resident']).map((item) => item.routeName)
 
-    expect(names).toEqual(['home', 'record', 'exams', 'agreement', 'rounds', 'teams', 'device'])
+    expect(names).toEqual(['home', 'record', 'exams', 'agreement', 'my-agreement', 'rounds', 'teams', 'device'])
   })
 
   it('an educator reads the exam log but is not offered recording', () => {

@@ -154,4 +154,15 @@ describe('AgreementView', () => {
     expect(route.meta?.roles).toEqual(['resident', 'attending', 'educator'])
     expect(typeof route.component).toBe('function')
   })
+
+  it('links educators and attendings to the accuracy view, but not residents', async () => {
+    const educator = await mountView(['educator'])
+    const link = educator.find('[data-testid="agreement-accuracy-link"]').attributes('href')
+    educator.unmount()
+
+    const resident = await mountView(['resident'])
+
+    expect(link).toBe('/agreement/accuracy')
+    expect(resident.find('[data-testid="agreement-accuracy-link"]').exists()).toBe(false)
+  })
 })

@@ -16,6 +16,7 @@ import { makeUser } from '../factories/user'
 
 vi.mock('@/api/exams', () => ({ fetchExams: vi.fn(), fetchExam: vi.fn(), submitExam: vi.fn(), updateExam: vi.fn() }))
 vi.mock('@/api/supervision')
+vi.mock('@/api/references', () => ({ fetchReferences: vi.fn(async () => []), addReference: vi.fn() }))
 
 async function mountDetail(exam: Exam, viewerId = exam.examinerId, roles = makeUser().roles) {
   useSessionStore().user = makeUser({ id: viewerId, roles })
@@ -287,5 +288,35 @@ describe('ExamDetailView', () => {
     expect(wrapper.find('[data-testid="exam-estimate-band"]').text()).toContain('10.7–16.7 cmH₂O')
     expect(wrapper.find('[data-testid="exam-category"]').text()).toContain('high')
     expect(wrapper.find('[data-testid="exam-compare-toggle"]').exists()).toBe(false)
+  })
+
+  it("links to the patient's timeline and lets the author add a reference, also after countersigning", async () => {
+    const exam = makeExam({ status: 'countersigned', patientCode: 'SM-0142' })
+
+    const wrapper = await mountDetail(exam)
+
+    expect(wrapper.find('[data-testid="exam-timeline-link"]').attributes('href')).toBe('/patients/SM-0142')
+    expect(wrapper.find('[data-testid="exam-references"]').exists()).toBe(true)
+    expect(wrapper.find('[data-testid="reference-add"]').exists()).toBe(true)
+  })
+
+  it("an attending of the exam's team may add a reference; a resident reading a teammate's exam may not", async () => {
+    const exam = makeExam({ status: 'submitted', examinerId: 'res-1', teamId: 't-1' })
+
+    const attending = await mountDetail(exam, 'att-1', ['attending'])
+    const canAttending = attending.find('[data-testid="reference-add"]').exists()
+    attending.unmount()
+    const teammate = await mountDetail(exam, 'res-2', ['resident'])
+
+    expect(canAttending).toBe(true)
+    expect(teammate.find('[data-testid="exam-references"]').exists()).toBe(true)
+    expect(teammate.find('[data-testid="reference-add"]').exists()).toBe(false)
+  })
+
+  it('an educator, who reads masked codes, gets neither the timeline link nor the references', async () => {
+    const wrapper = await mountDetail(makeExam({ status: 'submitted', examinerId: 'res-1' }), 'edu-1', ['educator'])
+
+    expect(wrapper.find('[data-testid="exam-timeline-link"]').exists()).toBe(false)
+    expect(wrapper.find('[data-testid="exam-references"]').exists()).toBe(false)
   })
 })

@@ -88,6 +88,19 @@ describe('ExamLogView', () => {
     expect(lastQuery()).toMatchObject({ patientCode: 'SM-0142', page: 1 })
   })
 
+  it('when the log is filtered by one patient code, links to that patient over time', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+    const { wrapper } = await mountLog()
+    expect(wrapper.find('[data-testid="exam-log-timeline-link"]').exists()).toBe(false)
+    const input = wrapper.find('[data-testid="filter-patient"] input')
+
+    await input.setValue('SM-0142')
+    await input.trigger('change')
+    await flushPromises()
+
+    expect(wrapper.find('[data-testid="exam-log-timeline-link"]').attributes('href')).toBe('/patients/SM-0142')
+  })
+
   it('when a status chip is chosen, asks the server for that status only', async () => {
     vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
     const { wrapper } = await mountLog()

@@ -43,6 +43,11 @@ async function type(testid: string, value: string, tag = 'input') {
   await flushPromises()
 }
 
+async function check(testid: string) {
+  $(testid)!.querySelector('input')!.click()
+  await flushPromises()
+}
+
 async function chooseMeaning(meaning: string) {
   $(`meaning-${meaning}`)!.querySelector('input')!.click()
   await flushPromises()
@@ -104,6 +109,8 @@ describe('ExamReviewView', () => {
     await mountReview()
     await click('review-countersign')
     await chooseMeaning('reviewed-re-examined')
+    await type('countersign-height', '6')
+    await type('countersign-inclination', '45')
     await type('countersign-password', 'wrong')
 
     await click('countersign-submit')
@@ -111,6 +118,7 @@ describe('ExamReviewView', () => {
     expect(fieldMessage('countersign-password')).toContain('That password is not right')
     expect(isOpen('countersign-dialog')).toBe(true)
     expect($('meaning-reviewed-re-examined')!.querySelector('input')!.checked).toBe(true)
+    expect($('countersign-height')!.querySelector('input')!.value).toBe('6')
     expect(useSessionStore().user).not.toBeNull()
   })
 
@@ -162,5 +170,76 @@ describe('ExamReviewView', () => {
 
     expect(supervision.returnExam).toHaveBeenCalledWith(exam.id, { comment: 'Measure again at 45°.', baseVersion: exam.version })
     expect(wrapper.find('[data-testid="review-done"]').exists()).toBe(true)
+  })
+  it('with "re-examined", asks for the height and inclination and sends nothing until they are given', async () => {
+    await mountReview()
+    await click('review-countersign')
+    expect($('countersign-reading')).toBeNull()
+
+    await chooseMeaning('reviewed-re-examined')
+    await type('countersign-password', 'bedside-demo')
+    await click('countersign-submit')
+
+    expect($('countersign-reading')).not.toBeNull()
+    expect(fieldMessage('countersign-height')).toBe('Enter the height you read')
+    expect(fieldMessage('countersign-inclination')).toBe('Enter the inclination')
+    expect(supervision.countersignExam).not.toHaveBeenCalled()
+  })
+
+  it('signs with the attending\'s reading, the time they examined and the feedback chosen', async () => {
+    const { exam } = await mountReview()
+    vi.mocked(supervision.countersignExam).mockResolvedValue(signed(exam))
+    await click('review-countersign')
+    await chooseMeaning('reviewed-re-examined')
+    await type('countersign-height', '6,5')
+    await type('countersign-inclination', '45')
+    await type('countersign-examined-at', '2026-03-14T10:15')
+    await check('countersign-feedback-read-peak-not-mean')
+    await check('countersign-feedback-other')
+    await type('countersign-feedback-text', 'Use the bed lever, not pillows.', 'textarea')
+    await type('countersign-password', 'bedside-demo')
+
+    await click('countersign-submit')
+
+    expect(supervision.countersignExam).toHaveBeenCalledWith(exam.id, {
+      password: 'bedside-demo',
+      meaning: 'reviewed-re-examined',
+      baseVersion: exam.version,
+      attendingReading: { heightCm: 6.5, inclinationDeg: 45, examinedAt: new Date('2026-03-14T10:15').toISOString() },
+      feedback: ['read-peak-not-mean', 'other'],
+      feedbackText: 'Use the bed lever, not pillows.',
+    })
+    expect(isOpen('countersign-dialog')).toBe(false)
+  })
+
+  it('"other" feedback without words shows the message at the text field', async () => {
+    await mountReview()
+    await click('review-countersign')
+    await chooseMeaning('reviewed-agree')
+    await check('countersign-feedback-other')
+    await type('countersign-password', 'bedside-demo')
+
+    await click('countersign-submit')
+
+    expect(fieldMessage('countersign-feedback-text')).toBe('Say what the other point of feedback is')
+    expect(supervision.countersignExam).not.toHaveBeenCalled()
+  })
+
+  it("shows the server's field errors for the reading at the field they belong to", async () => {
+    vi.mocked(supervision.countersignExam).mockRejectedValue(
+      httpError(400, 'invalid-input', 'Check the marked fields', { 'attendingReading.examinedAt': 'The time you examined cannot be in the future' }),
+    )
+    await mountReview()
+    await click('review-countersign')
+    await chooseMeaning('reviewed-re-examined')
+    await type('countersign-height', '6')
+    await type('countersign-inclination', '45')
+    await type('countersign-examined-at', '2099-01-01T10:00')
+    await type('countersign-password', 'bedside-demo')
+
+    await click('countersign-submit')
+
+    expect(fieldMessage('countersign-examined-at')).toBe('The time you examined cannot be in the future')
+    expect(isOpen('countersign-dialog')).toBe(true)
   })
 })

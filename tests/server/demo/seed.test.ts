@@ -55,14 +55,14 @@ describe('demo seed', () => {
     expect(attending.res.body.user.roles).toEqual(['attending'])
   })
 
-  it('gives the resident a log of drafts and submitted exams with plausible findings', async () => {
+  it('gives the resident a log of drafts, submitted and countersigned exams with plausible findings', async () => {
     const { auth } = await signInAs('resident@saltmarsh.test')
 
     const res = await request(app).get('/api/exams').set('Authorization', auth)
 
     const { exams } = ExamListSchema.parse(res.body)
     expect(exams.length).toBeGreaterThanOrEqual(8)
-    expect(new Set(exams.map((e) => e.status))).toEqual(new Set(['draft', 'submitted']))
+    expect(new Set(exams.map((e) => e.status))).toEqual(new Set(['draft', 'submitted', 'countersigned']))
     expect(exams.every((e) => /^SM-\d{4}$/.test(e.patientCode) && e.examinerName === 'Dr Sam Whitcombe')).toBe(true)
     expect(exams.every((e) => (e.inclinationDeg >= 30 && e.inclinationDeg <= 60) || e.columnTop === 'not-filled')).toBe(true)
   })

@@ -4,7 +4,7 @@ import { ExamSchema } from '#shared/schemas/exam'
 import { UserModel } from '../../../server/models/index.ts'
 import { recordExam, recordSubmittedExam } from '../factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
-import { act, eventsOf, makeWard, recordOf, SIGN } from './ward.ts'
+import { act, eventsOf, makeWard, RE_EXAMINED, recordOf, SIGN } from './ward.ts'
 
 let app: Awaited<ReturnType<typeof makeTestApp>>['app']
 
@@ -23,7 +23,7 @@ describe('POST /api/exams/:id/countersign', () => {
     const { attending, exam } = await submittedOnWard()
     const before = Date.now()
 
-    const res = await act(app, attending.auth, exam, 'countersign', { ...SIGN, meaning: 'reviewed-re-examined', signedAt: '2020-01-01T00:00:00Z' })
+    const res = await act(app, attending.auth, exam, 'countersign', { ...RE_EXAMINED, signedAt: '2020-01-01T00:00:00Z' })
 
     const after = Date.now()
     expect(res.status).toBe(200)

@@ -4,7 +4,7 @@ import { startFakeSmtp, type FakeSmtp } from '../../../server/mail/fake-smtp.ts'
 import { createMailer, type Mailer } from '../../../server/mail/mailer.ts'
 import { recordExam, recordSubmittedExam } from '../factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
-import { act, makeWard, SIGN } from './ward.ts'
+import { act, makeWard, RE_EXAMINED, SIGN } from './ward.ts'
 
 const cleanups: (() => unknown)[] = []
 
@@ -80,12 +80,31 @@ describe('workflow e-mail', () => {
     await mailer.idle()
     fake.clear()
 
-    await act(app, attending.auth, exam, 'countersign', { ...SIGN, meaning: 'reviewed-re-examined' })
+    await act(app, attending.auth, exam, 'countersign', RE_EXAMINED)
     await mailer.idle()
 
     const [message] = fake.messages()
     expect(message).toMatchObject({ to: [resident.user.email], subject: 'Exam countersigned by Dr Tomas Lindqvist' })
     expect(message!.text).toContain('meaning: reviewed after re-examining the patient')
+  })
+
+  it('on countersignature with a reading and feedback, gives the resident the reading, the difference and the feedback', async () => {
+    const { fake, mailer, app, team, resident, attending } = await wardWithMail()
+    const exam = await recordSubmittedExam(app, resident.auth, { teamId: team.id, patientCode: 'SM-0160' })
+    await mailer.idle()
+    fake.clear()
+    const feedback = { feedback: ['read-peak-not-mean', 'other'], feedbackText: 'Sit SM-0160 up a little more next time' }
+
+    await act(app, attending.auth, exam, 'countersign', { ...RE_EXAMINED, ...feedback })
+    await mailer.idle()
+
+    const text = fake.messages()[0]!.text
+    // Resident h = 4 cm, attending h = 6 cm, both at 45° with the same offset: 4 − 6 = −2 cmH₂O.
+    expect(text).toContain('column top 6.0 cm above the sternal angle at 45.0°')
+    expect(text).toContain('your estimate minus theirs: −2.0 cmH₂O')
+    expect(text).toContain('Read the mean level of the column, not its peak')
+    expect(text).toContain('Sit [patient code removed] up a little more next time')
+    expect(text).not.toContain('SM-0160')
   })
 
   it('sends nothing when the countersignature is refused', async () => {

@@ -3,7 +3,7 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import { ExamSchema } from '#shared/schemas/exam'
 import { recordExam, recordSubmittedExam } from '../factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
-import { act, makeWard, recordOf, SIGN } from './ward.ts'
+import { act, makeWard, recordOf, RE_EXAMINED, SIGN } from './ward.ts'
 
 let app: Awaited<ReturnType<typeof makeTestApp>>['app']
 
@@ -126,7 +126,7 @@ describe('POST /api/exams/:id/amend', () => {
     await request(app).patch(url).set('Authorization', resident.auth).send(change)
     await act(app, resident.auth, exam, 'submit')
 
-    const res = await act(app, attending.auth, exam, 'countersign', { ...SIGN, meaning: 'reviewed-re-examined' })
+    const res = await act(app, attending.auth, exam, 'countersign', RE_EXAMINED)
 
     expect(res.status).toBe(200)
     const signatures = ExamSchema.parse(res.body).signatures!

@@ -8,6 +8,9 @@ type App = Parameters<typeof request>[0]
 
 export const SIGN = { password: PASSWORD, meaning: 'reviewed-agree' } as const
 
+/** Countersigning after re-examining: the attending's own reading of the same patient is required. */
+export const RE_EXAMINED = { ...SIGN, meaning: 'reviewed-re-examined', attendingReading: { heightCm: 6, inclinationDeg: 45 } } as const
+
 /** A ward with a resident and an attending who can sign (the attending has a real password). */
 export async function makeWard(name = 'Ward 7 North') {
   const team = await makeTeam(name)

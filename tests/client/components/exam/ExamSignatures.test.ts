@@ -3,6 +3,7 @@ import { mount } from '@vue/test-utils'
 import { createVuetify } from 'vuetify'
 import type { Signature } from '#shared/schemas/signature'
 import ExamSignatures from '@/components/exam/ExamSignatures.vue'
+import { FEEDBACK_LABEL } from '#shared/domain/feedback-text'
 import { makeSignature } from '../../factories/signature'
 
 function mountSignatures(signatures: Signature[]) {
@@ -49,5 +50,40 @@ describe('ExamSignatures', () => {
     const wrapper = mountSignatures([makeSignature()])
 
     expect(wrapper.find('[data-testid="signature-integrity-warning"]').exists()).toBe(false)
+  })
+
+  it("shows the resident the attending's reading, the difference in words and the feedback", () => {
+    const signature = makeSignature({
+      meaning: 'reviewed-re-examined',
+      attendingReading: { examId: 'att-exam', heightCm: 2, inclinationDeg: 45, examinedAt: '2026-07-14T08:20:00.000Z', cvpCmH2O: 11.1, differenceCmH2O: 2.6 },
+      feedback: ['read-peak-not-mean', 'other'],
+      feedbackText: 'Use the bed lever, not pillows.',
+    })
+
+    const wrapper = mountSignatures([signature])
+
+    expect(wrapper.find('[data-testid="attending-reading-values"]').text()).toContain('2.0 cm above the sternal angle at 45°')
+    expect(wrapper.find('[data-testid="attending-reading-values"]').text()).toContain('estimate 11.1 cmH₂O')
+    expect(wrapper.find('[data-testid="attending-reading-difference"]').text()).toContain('+2.6 cmH₂O (the resident read higher)')
+    const feedback = wrapper.findAll('[data-testid="attending-feedback"] li').map((li) => li.text())
+    expect(feedback).toEqual([FEEDBACK_LABEL['read-peak-not-mean'], 'Use the bed lever, not pillows.'])
+  })
+
+  it('says there is no difference to take when one reading is a bound', () => {
+    const signature = makeSignature({
+      meaning: 'reviewed-re-examined',
+      attendingReading: { examId: 'att-exam', heightCm: 2, inclinationDeg: 45, examinedAt: '2026-07-14T08:20:00.000Z', cvpCmH2O: 11.1, differenceCmH2O: null },
+    })
+
+    const wrapper = mountSignatures([signature])
+
+    expect(wrapper.find('[data-testid="attending-reading-difference"]').text()).toContain('No difference to take')
+    expect(wrapper.find('[data-testid="attending-feedback"]').exists()).toBe(false)
+  })
+
+  it('shows no reading for a signature that agrees without re-examining', () => {
+    const wrapper = mountSignatures([makeSignature()])
+
+    expect(wrapper.find('[data-testid="attending-reading"]').exists()).toBe(false)
   })
 })

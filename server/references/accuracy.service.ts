@@ -1,0 +1,93 @@
+import { QueryTypes } from 'sequelize'
+import { accuracyFigures, boundOfBand, insideBand, type AccuracyPair, type StoredBand } from '#shared/domain/accuracy'
+import { CAUTION_TEXT } from '#shared/domain/interpretation'
+import { ACCURACY_POINTS_MAX, type AccuracyPoint, type AccuracyQuery, type AccuracySummary } from '#shared/schemas/reference'
+import type { User } from '#shared/schemas/user'
+import { AppError, invalidInput } from '../errors.ts'
+import { ReferenceModel } from '../models/index.ts'
+import { teamIdsOf } from '../users/team-members.ts'
+import { referenceWindow } from './reference-records.ts'
+
+interface Filter {
+  sql: string
+  replacements: Record<string, unknown>
+}
+
+/** Educators read the whole program; attendings their own teams, and may narrow to one of them only. */
+function teamsFor(user: User, query: AccuracyQuery): string[] | null {
+  if (user.roles.includes('educator')) return query.teamId ? [query.teamId] : null
+  const own = teamIdsOf(user)
+  if (query.teamId && !own.includes(query.teamId))
+    throw new AppError('not-your-team', 403, 'Attendings see the accuracy of their own teams only')
+  return query.teamId ? [query.teamId] : own
+}
+
+/**
+ * The pairs as SQL (SQLite's): a reference and its non-draft exam with an estimate and a band, measured within the
+ * window of the exam. Times are compared as julian days, to the millisecond, since SQLite stores them as text.
+ */
+function filterOf(user: User, query: AccuracyQuery, windowMinutes: number): Filter {
+  if (query.from && query.to && Date.parse(query.from) > Date.parse(query.to))
+    throw invalidInput({ to: 'The end of the range is before its start' })
+  const teams = teamsFor(user, query)
+  const parts = [
+    `e."status" != 'draft'`,
+    // An exam with an estimate has a band, at least one end of it (not assessable has neither).
+    `e."cvpCmH2O" IS NOT NULL`,
+    `(e."bandLowCmH2O" IS NOT NULL OR e."bandHighCmH2O" IS NOT NULL)`,
+    `abs(round((julianday(r."measuredAt") - julianday(e."examinedAt")) * 86400000)) <= :windowMs`,
+    teams && (teams.length ? `e."teamId" IN (:teams)` : '0'),
+    query.kind && `r."kind" = :kind`,
+    query.from && `julianday(e."examinedAt") >= julianday(:from)`,
+    query.to && `julianday(e."examinedAt") <= julianday(:to)`,
+  ].filter((p): p is string => !!p)
+  const replacements = { windowMs: windowMinutes * 60_000, teams, kind: query.kind, from: query.from, to: query.to }
+  // Without table statistics SQLite would look exams up by their primary key and read each wide row (the estimate JSON
+  // spills into overflow pages): 100,000 references took seconds. The covering index answers from the index alone.
+  const from = `FROM "reference_measurements" r JOIN "exams" e INDEXED BY "exams_accuracy" ON e."id" = r."examId"`
+  return { sql: `${from} WHERE ${parts.join(' AND ')}`, replacements }
+}
+
+const select = <T extends object>(sql: string, filter: Filter) =>
+  ReferenceModel.sequelize!.query<T>(sql, { type: QueryTypes.SELECT, replacements: filter.replacements })
+
+/** Every pair, as four JSON arrays in one row: node-sqlite3 builds one row far faster than 100,000. */
+async function allPairs(filter: Filter): Promise<AccuracyPair[]> {
+  const arrays = `json_group_array(e."cvpCmH2O") AS "estimates", json_group_array(r."valueCmH2O") AS "references", json_group_array(e."bandLowCmH2O") AS "lows", json_group_array(e."bandHighCmH2O") AS "highs"`
+  const [row] = await select<Record<'estimates' | 'references' | 'lows' | 'highs', string>>(`SELECT ${arrays} ${filter.sql}`, filter)
+  if (!row) return []
+  const [estimates, references, lows, highs] = [row.estimates, row.references, row.lows, row.highs].map(
+    (text) => JSON.parse(text) as (number | null)[],
+  )
+  return estimates!.map((estimate, i) => ({ estimateCmH2O: estimate!, referenceCmH2O: references![i]!, band: [lows![i]!, highs![i]!] }))
+}
+
+interface PointRow {
+  examId: string
+  kind: AccuracyPoint['kind']
+  estimateCmH2O: number
+  referenceCmH2O: number
+  low: number | null
+  high: number | null
+}
+
+/** The most recent pairs by time of exam, oldest of them first, for the plots. */
+async function recentPoints(filter: Filter): Promise<AccuracyPoint[]> {
+  const order = `ORDER BY e."examinedAt" DESC, r."measuredAt" DESC, r."rowid" DESC LIMIT ${ACCURACY_POINTS_MAX}`
+  // rowid, not id: the indexes hold it, so the sort reads no table row.
+  const recent = `SELECT r."rowid" AS "referenceRow", e."examinedAt" AS "examinedAt", r."measuredAt" AS "measuredAt" ${filter.sql} ${order}`
+  const columns = `e."id" AS "examId", r."kind" AS "kind", e."cvpCmH2O" AS "estimateCmH2O", r."valueCmH2O" AS "referenceCmH2O", e."bandLowCmH2O" AS "low", e."bandHighCmH2O" AS "high"`
+  const joined = `SELECT ${columns} FROM (${recent}) t JOIN "reference_measurements" r ON r."rowid" = t."referenceRow" JOIN "exams" e ON e."id" = r."examId"`
+  const rows = await select<PointRow>(`${joined} ORDER BY t."examinedAt" ASC, t."measuredAt" ASC, t."referenceRow" ASC`, filter)
+  return rows.map(({ low, high, ...row }) => {
+    const band: StoredBand = [low, high]
+    return { ...row, bound: boundOfBand(band), band: [low, high], inside: insideBand(band, row.referenceCmH2O) }
+  })
+}
+
+/** Accuracy of the estimate against measured pressures in the reader's scope (educators: all; attendings: their teams). */
+export async function accuracySummary(user: User, query: AccuracyQuery): Promise<AccuracySummary> {
+  const filter = filterOf(user, query, await referenceWindow())
+  const [pairs, points] = await Promise.all([allPairs(filter), recentPoints(filter)])
+  return { ...accuracyFigures(pairs), points, caution: CAUTION_TEXT }
+}
