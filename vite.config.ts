@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs'
+import { readdirSync, readFileSync } from 'node:fs'
 import path from 'node:path'
 import { fileURLToPath, pathToFileURL, URL } from 'node:url'
 import type { Plugin, UserConfig } from 'vite'
@@ -6,6 +6,7 @@ import { defineConfig, type ViteUserConfig } from 'vitest/config'
 import vue from '@vitejs/plugin-vue'
 import vuetify from 'vite-plugin-vuetify'
 import { VitePWA } from 'vite-plugin-pwa'
+import { compression } from 'vite-plugin-compression2'
 
 const apiTarget = `http://localhost:${process.env.PORT ?? 3000}`
 
@@ -23,6 +24,59 @@ function besideTheBundle(): Plugin {
   }
 }
 
+const ICON_NAME = /\bmdi-[a-z0-9]+(?:-[a-z0-9]+)*/g
+
+/** Every `mdi-…` name written in the client and shared sources, and the ones Vuetify's own `$` aliases stand for. */
+function iconNamesInUse(): Set<string> {
+  const root = fileURLToPath(new URL('.', import.meta.url))
+  const sources = ['src', 'shared'].flatMap((dir) =>
+    readdirSync(path.join(root, dir), { recursive: true, encoding: 'utf8' })
+      .filter((file) => /\.(vue|ts)$/.test(file))
+      .map((file) => path.join(root, dir, file)),
+  )
+  sources.push(path.join(root, 'node_modules/vuetify/lib/iconsets/mdi.js'))
+  return new Set(sources.flatMap((file) => readFileSync(file, 'utf8').match(ICON_NAME) ?? []))
+}
+
+/**
+ * @mdi/font's stylesheet names all ~7,400 icons (54 KB gzip, render-blocking): the build keeps the rules of the icons
+ * in use. Its @font-face goes in every mode: src/plugins/icon-font.ts loads the woff2 once the first page is up. An
+ * icon name put together at run time (`'mdi-' + x`) is not seen: write names out in full.
+ */
+function iconSubset(): Plugin {
+  let build = false
+  return {
+    name: 'plumbline:icon-subset',
+    configResolved: (config) => void (build = config.command === 'build'),
+    load(id) {
+      if (!/@mdi\/font\/css\/materialdesignicons\.css$/.test(id)) return null
+      const css = readFileSync(id, 'utf8').replace(/@font-face \{[^}]*\}/, '')
+      if (!build) return css
+      const inUse = iconNamesInUse()
+      return css.replace(/\.(mdi-[a-z0-9-]+)::before \{\s*content: "\\[0-9A-F]+";\s*\}\s*/g, (rule, name: string) =>
+        inUse.has(name) ? rule : '',
+      )
+    },
+  }
+}
+
+/** Preloads the body text face (Roboto 400, Latin), so the first text does not wait for the stylesheet to name it. */
+function preloadTextFont(): Plugin {
+  return {
+    name: 'plumbline:preload-text-font',
+    apply: 'build',
+    transformIndexHtml: {
+      order: 'post',
+      handler(_html, { bundle }) {
+        const font = Object.keys(bundle ?? {}).find((file) => /\/roboto-latin-400-normal-[\w-]+\.woff2$/.test(file))
+        if (!font) throw new Error('Roboto 400 (Latin) is missing from the bundle: nothing to preload')
+        const attrs = { rel: 'preload', as: 'font', type: 'font/woff2', href: `/${font}`, crossorigin: '' }
+        return [{ tag: 'link', attrs, injectTo: 'head' }]
+      },
+    },
+  }
+}
+
 // `vite build --ssr`: the server and shared/ as one ES module for plain `node` (tsx stays a development tool). Packages
 // stay imports, so `npm ci --omit=dev` provides them; `#shared/*` and the .ts extensions are resolved here.
 const serverBuild: UserConfig = {
@@ -35,6 +89,11 @@ const app: ViteUserConfig = {
   plugins: [
     vue(),
     vuetify({ autoImport: true }),
+    iconSubset(),
+    preloadTextFont(),
+    // .br and .gz beside each text asset of 1 KB or more, for the server to send to browsers that accept them; a
+    // smaller file gains less than a packet, and one the packing would not shrink gets no copy either.
+    compression({ algorithms: ['brotliCompress', 'gzip'], include: /\.(html|css|js|mjs|json|svg|webmanifest|txt)$/, threshold: 1024 }),
     // https://vite-pwa-org.netlify.app/guide/
     VitePWA({
       strategies: 'generateSW',
@@ -66,8 +125,6 @@ const app: ViteUserConfig = {
         // browsers that run this service worker all read woff2, so the eot/ttf/woff copies would be dead weight.
         globPatterns: ['**/*.{js,css,html,woff2}'],
         globIgnores: ['**/*.{eot,ttf,woff}'],
-        // @mdi/font's CSS asks for `…woff2?v=7.4.47`; without ignoring `v` that request misses the precache offline.
-        ignoreURLParametersMatching: [/^utm_/, /^fbclid$/, /^v$/],
         navigateFallback: 'index.html',
         navigateFallbackDenylist: [/^\/api(?:\/|$)/],
         // Nothing from /api is ever cached: answers carry patient data. There is no Background Sync route: the
@@ -79,6 +136,8 @@ const app: ViteUserConfig = {
       },
     }),
   ],
+  // Every component is written with <script setup> or setup(); without the options API, Vue's runtime is smaller.
+  define: { __VUE_OPTIONS_API__: 'false' },
   resolve: {
     alias: { '@': fileURLToPath(new URL('./src', import.meta.url)) },
   },
@@ -90,6 +149,13 @@ const app: ViteUserConfig = {
     chunkSizeWarningLimit: 600,
     // dist/client/.vite/manifest.json maps entries to chunks for `npm run bench:bundle`
     manifest: true,
+    rolldownOptions: {
+      output: {
+        // zod and src/plugins/zod-jitless.ts in one chunk, in that order: the setting is made before any chunk that
+        // builds a schema runs (in a chunk of its own, main.ts's first import would run after them).
+        codeSplitting: { groups: [{ name: 'zod', test: /[\\/]node_modules[\\/]zod[\\/]|[\\/]src[\\/]plugins[\\/]zod-jitless\.ts$/ }] },
+      },
+    },
   },
   test: {
     // bcrypt at the production work factor costs ~0.7 s per hash in pure JS; config.ts allows less only under NODE_ENV=test.

@@ -1,3 +1,4 @@
+import './plugins/zod-jitless'
 import { createApp } from 'vue'
 import App from './App.vue'
 import { registerPlugins } from './plugins'

@@ -1,4 +1,4 @@
-import { computed, useId } from 'vue'
+import { computed } from 'vue'
 import { useTheme } from 'vuetify'
 import { CategoryScale, Chart, Legend, LinearScale, LineController, LineElement, PointElement, ScatterController, Tooltip } from 'chart.js'
 
@@ -27,12 +27,11 @@ function useChartColors() {
 }
 
 /**
- * What every agreement chart shares: the registered chart.js parts, the theme's colours, an id for the caption that
- * describes the chart, and options with themed axes (titled when given a title) and the legend below.
+ * What every agreement chart shares: the registered chart.js parts, the theme's colours, and options with themed
+ * axes (titled when given a title) and the legend below. AgreementChartFigure.vue gives each its caption.
  */
 export function useAgreementChart(axisTitles: () => { x?: string; y?: string }) {
   const colors = useChartColors()
-  const captionId = useId()
   // Plain values only (no scriptable options), so one object fits the scatter and the line charts alike.
   const options = computed(() => {
     const c = colors.value
@@ -47,8 +46,10 @@ export function useAgreementChart(axisTitles: () => { x?: string; y?: string }) 
       maintainAspectRatio: false,
       animation: false as const,
       scales: { x: axis(x), y: axis(y) },
-      plugins: { legend: { position: 'bottom' as const, labels: { color: c.text, usePointStyle: true, pointStyleWidth: 24, boxHeight: 8 } } },
+      plugins: {
+        legend: { position: 'bottom' as const, labels: { color: c.text, usePointStyle: true, pointStyleWidth: 24, boxHeight: 8 } },
+      },
     }
   })
-  return { colors, captionId, options }
+  return { colors, options }
 }

@@ -1,0 +1,38 @@
+import { describe, expect, it } from 'vitest'
+import { useDemoBrowser } from './browser.ts'
+
+const demo = useDemoBrowser()
+const WAIT = { timeout: 15_000 }
+
+describe('the first visit in Chromium (built client, production server)', () => {
+  it('the sign-in page breaks no rule of the Content-Security-Policy (no eval probe, no inline script)', async () => {
+    const page = await demo.browser.newPage()
+    await page.addInitScript(() => {
+      const seen: string[] = []
+      Object.assign(window, { violations: seen })
+      document.addEventListener('securitypolicyviolation', (e) => seen.push(`${e.violatedDirective} ${e.blockedURI} ${e.sourceFile}`))
+    })
+
+    await page.goto(`${demo.server.url}/sign-in`)
+    await expect.poll(() => page.getByTestId('sign-in-email').isVisible(), WAIT).toBe(true)
+
+    expect(await page.evaluate(() => (window as unknown as { violations: string[] }).violations)).toEqual([])
+    await page.close()
+  })
+
+  it('shows the heading in Roboto and then loads the icon font, so the icons draw', async () => {
+    const page = await demo.browser.newPage()
+
+    await page.goto(`${demo.server.url}/sign-in`)
+    await expect.poll(() => page.getByRole('heading', { name: 'Sign in to Plumbline' }).isVisible(), WAIT).toBe(true)
+
+    const loaded = (family: string) =>
+      page.evaluate(
+        (name) => [...document.fonts].some((face) => face.family.replace(/"/g, '') === name && face.status === 'loaded'),
+        family,
+      )
+    await expect.poll(() => loaded('Material Design Icons'), WAIT).toBe(true)
+    expect(await loaded('Roboto')).toBe(true)
+    await page.close()
+  })
+})
