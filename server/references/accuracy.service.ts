@@ -4,6 +4,7 @@ import { CAUTION_TEXT } from '#shared/domain/interpretation'
 import { ACCURACY_POINTS_MAX, type AccuracyPoint, type AccuracyQuery, type AccuracySummary } from '#shared/schemas/reference'
 import type { User } from '#shared/schemas/user'
 import { AppError, invalidInput } from '../errors.ts'
+import { queryDialect } from '../db/query-dialect.ts'
 import { ReferenceModel } from '../models/index.ts'
 import { teamIdsOf } from '../users/team-members.ts'
 import { referenceWindow } from './reference-records.ts'
@@ -23,10 +24,11 @@ function teamsFor(user: User, query: AccuracyQuery): string[] | null {
 }
 
 /**
- * The pairs as SQL (SQLite's): a reference and its non-draft exam with an estimate and a band, measured within the
- * window of the exam. Times are compared as julian days, to the millisecond, since SQLite stores them as text.
+ * The pairs as SQL: a reference and its non-draft exam with an estimate and a band, measured within the window of the
+ * exam. Times are compared as milliseconds (the database's own spelling from server/db/query-dialect.ts).
  */
 function filterOf(user: User, query: AccuracyQuery, windowMinutes: number): Filter {
+  const { epochMs, indexHint } = queryDialect(ReferenceModel.sequelize!)
   if (query.from && query.to && Date.parse(query.from) > Date.parse(query.to))
     throw invalidInput({ to: 'The end of the range is before its start' })
   const teams = teamsFor(user, query)
@@ -35,25 +37,26 @@ function filterOf(user: User, query: AccuracyQuery, windowMinutes: number): Filt
     // An exam with an estimate has a band, at least one end of it (not assessable has neither).
     `e."cvpCmH2O" IS NOT NULL`,
     `(e."bandLowCmH2O" IS NOT NULL OR e."bandHighCmH2O" IS NOT NULL)`,
-    `abs(round((julianday(r."measuredAt") - julianday(e."examinedAt")) * 86400000)) <= :windowMs`,
+    `abs(${epochMs('r."measuredAt"')} - ${epochMs('e."examinedAt"')}) <= :windowMs`,
     teams && (teams.length ? `e."teamId" IN (:teams)` : '0'),
     query.kind && `r."kind" = :kind`,
-    query.from && `julianday(e."examinedAt") >= julianday(:from)`,
-    query.to && `julianday(e."examinedAt") <= julianday(:to)`,
+    query.from && `${epochMs('e."examinedAt"')} >= ${epochMs(':from')}`,
+    query.to && `${epochMs('e."examinedAt"')} <= ${epochMs(':to')}`,
   ].filter((p): p is string => !!p)
   const replacements = { windowMs: windowMinutes * 60_000, teams, kind: query.kind, from: query.from, to: query.to }
   // Without table statistics SQLite would look exams up by their primary key and read each wide row (the estimate JSON
   // spills into overflow pages): 100,000 references took seconds. The covering index answers from the index alone.
-  const from = `FROM "reference_measurements" r JOIN "exams" e INDEXED BY "exams_accuracy" ON e."id" = r."examId"`
+  const from = `FROM "reference_measurements" r JOIN "exams" e ${indexHint('exams_accuracy')} ON e."id" = r."examId"`
   return { sql: `${from} WHERE ${parts.join(' AND ')}`, replacements }
 }
 
 const select = <T extends object>(sql: string, filter: Filter) =>
   ReferenceModel.sequelize!.query<T>(sql, { type: QueryTypes.SELECT, replacements: filter.replacements })
 
-/** Every pair, as four JSON arrays in one row: node-sqlite3 builds one row far faster than 100,000. */
+/** Every pair, as four JSON arrays in one row: the driver builds one row far faster than 100,000. */
 async function allPairs(filter: Filter): Promise<AccuracyPair[]> {
-  const arrays = `json_group_array(e."cvpCmH2O") AS "estimates", json_group_array(r."valueCmH2O") AS "references", json_group_array(e."bandLowCmH2O") AS "lows", json_group_array(e."bandHighCmH2O") AS "highs"`
+  const { jsonArray } = queryDialect(ReferenceModel.sequelize!)
+  const arrays = `${jsonArray('e."cvpCmH2O"')} AS "estimates", ${jsonArray('r."valueCmH2O"')} AS "references", ${jsonArray('e."bandLowCmH2O"')} AS "lows", ${jsonArray('e."bandHighCmH2O"')} AS "highs"`
   const [row] = await select<Record<'estimates' | 'references' | 'lows' | 'highs', string>>(`SELECT ${arrays} ${filter.sql}`, filter)
   if (!row) return []
   const [estimates, references, lows, highs] = [row.estimates, row.references, row.lows, row.highs].map(
@@ -73,11 +76,11 @@ interface PointRow {
 
 /** The most recent pairs by time of exam, oldest of them first, for the plots. */
 async function recentPoints(filter: Filter): Promise<AccuracyPoint[]> {
-  const order = `ORDER BY e."examinedAt" DESC, r."measuredAt" DESC, r."rowid" DESC LIMIT ${ACCURACY_POINTS_MAX}`
-  // rowid, not id: the indexes hold it, so the sort reads no table row.
-  const recent = `SELECT r."rowid" AS "referenceRow", e."examinedAt" AS "examinedAt", r."measuredAt" AS "measuredAt" ${filter.sql} ${order}`
+  const order = `ORDER BY e."examinedAt" DESC, r."measuredAt" DESC, r."id" DESC LIMIT ${ACCURACY_POINTS_MAX}`
+  // The reference's covering index holds its id, so the sort reads no table row.
+  const recent = `SELECT r."id" AS "referenceRow", e."examinedAt" AS "examinedAt", r."measuredAt" AS "measuredAt" ${filter.sql} ${order}`
   const columns = `e."id" AS "examId", r."kind" AS "kind", e."cvpCmH2O" AS "estimateCmH2O", r."valueCmH2O" AS "referenceCmH2O", e."bandLowCmH2O" AS "low", e."bandHighCmH2O" AS "high"`
-  const joined = `SELECT ${columns} FROM (${recent}) t JOIN "reference_measurements" r ON r."rowid" = t."referenceRow" JOIN "exams" e ON e."id" = r."examId"`
+  const joined = `SELECT ${columns} FROM (${recent}) t JOIN "reference_measurements" r ON r."id" = t."referenceRow" JOIN "exams" e ON e."id" = r."examId"`
   const rows = await select<PointRow>(`${joined} ORDER BY t."examinedAt" ASC, t."measuredAt" ASC, t."referenceRow" ASC`, filter)
   return rows.map(({ low, high, ...row }) => {
     const band: StoredBand = [low, high]

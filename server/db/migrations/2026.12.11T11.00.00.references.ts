@@ -44,7 +44,7 @@ export async function up(q: QueryInterface): Promise<void> {
     addedAt: { type: DataTypes.DATE, allowNull: false },
   })
   // Covers what the accuracy summary reads of a reference, found by its exam: the table itself is never read.
-  await q.addIndex(TABLE, ['examId', 'measuredAt', 'kind', 'valueCmH2O'], { name: 'reference_measurements_exam_id' })
+  await q.addIndex(TABLE, ['examId', 'measuredAt', 'kind', 'valueCmH2O', 'id'], { name: 'reference_measurements_exam_id' })
   // A measured value is evidence: corrections are new rows, never edits.
   await appendOnlyTriggers(q, TABLE, 'reference measurements are append-only')
   await q.addColumn('signatures', 'readingExamId', {
