@@ -13,6 +13,7 @@ import * as agreementPairsTable from './migrations/2026.12.08T09.00.00.agreement
 import * as userRoles from './migrations/2026.12.08T10.00.00.user-roles.ts'
 import * as venousContext from './migrations/2026.12.09T09.00.00.venous-context.ts'
 import * as agreementPairBounds from './migrations/2026.12.10T09.30.00.agreement-pair-bounds.ts'
+import * as listIndexes from './migrations/2026.12.11T09.00.00.list-indexes.ts'
 
 interface MigrationModule {
   up(q: QueryInterface): Promise<void>
@@ -34,6 +35,7 @@ const migrations: [string, MigrationModule][] = [
   ['2026.12.08T10.00.00.user-roles', userRoles],
   ['2026.12.09T09.00.00.venous-context', venousContext],
   ['2026.12.10T09.30.00.agreement-pair-bounds', agreementPairBounds],
+  ['2026.12.11T09.00.00.list-indexes', listIndexes],
 ]
 
 /** Every migration's name, oldest first. */
