@@ -1,5 +1,4 @@
 import { existsSync } from 'node:fs'
-import path from 'node:path'
 import express, { type Express, type NextFunction, type Request, type Response } from 'express'
 import cookieParser from 'cookie-parser'
 import helmet from 'helmet'
@@ -23,6 +22,8 @@ import { errorHandler } from './middleware/error-handler.ts'
 import { bodyGuard, pathAndQueryGuard } from './middleware/input-guard.ts'
 import { patientsRouter } from './patients/patients.routes.ts'
 import { accuracyRouter, referencesRouter } from './references/references.routes.ts'
+import { compressAnswers } from './http/compression.ts'
+import { serveClient } from './http/static-files.ts'
 import { rosterRouter } from './roster/roster.routes.ts'
 import { adminSettingsRouter, settingsRouter } from './settings/settings.routes.ts'
 import { roundsRouter } from './rounds/rounds.routes.ts'
@@ -64,14 +65,6 @@ function requestLog(log: Logger) {
   }
 }
 
-function serveClient(app: Express, dir: string) {
-  app.use(express.static(dir, { index: false }))
-  app.use((req, res, next) => {
-    if (req.method !== 'GET' || req.path.startsWith('/api')) return next()
-    res.sendFile(path.join(dir, 'index.html'))
-  })
-}
-
 /** Every model must be bound to the injected database: a model left on another connection would write elsewhere. */
 function checkModels({ sequelize, models }: Pick<AppDeps, 'sequelize' | 'models'>): void {
   const stray = Object.entries(models).filter(([, model]) => model.sequelize !== sequelize)
@@ -86,6 +79,7 @@ export function createApp(deps: AppDeps): Express {
   app.set('trust proxy', 'loopback')
   app.use(helmet({ contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } } }))
   app.use(requestLog(deps.log))
+  app.use('/api', compressAnswers())
   app.use('/api', (_req, res, next) => {
     res.set('Cache-Control', 'no-store')
     next()

@@ -14,6 +14,7 @@ import * as userRoles from './migrations/2026.12.08T10.00.00.user-roles.ts'
 import * as venousContext from './migrations/2026.12.09T09.00.00.venous-context.ts'
 import * as agreementPairBounds from './migrations/2026.12.10T09.30.00.agreement-pair-bounds.ts'
 import * as agreementPairCoveringIndexes from './migrations/2026.12.11T08.00.00.agreement-pair-covering-indexes.ts'
+import * as listIndexes from './migrations/2026.12.11T09.00.00.list-indexes.ts'
 import * as auditChain from './migrations/2026.12.11T10.00.00.audit-chain.ts'
 import * as mailOutbox from './migrations/2026.12.11T10.30.00.mail-outbox.ts'
 import * as references from './migrations/2026.12.11T11.00.00.references.ts'
@@ -39,6 +40,7 @@ const migrations: [string, MigrationModule][] = [
   ['2026.12.09T09.00.00.venous-context', venousContext],
   ['2026.12.10T09.30.00.agreement-pair-bounds', agreementPairBounds],
   ['2026.12.11T08.00.00.agreement-pair-covering-indexes', agreementPairCoveringIndexes],
+  ['2026.12.11T09.00.00.list-indexes', listIndexes],
   ['2026.12.11T10.00.00.audit-chain', auditChain],
   ['2026.12.11T10.30.00.mail-outbox', mailOutbox],
   ['2026.12.11T11.00.00.references', references],

@@ -77,9 +77,16 @@ export function storedInput(row: ExamModel): Record<string, unknown> {
   }
 }
 
-/** JSON with every object's keys sorted, so equal content always serialises to equal text. */
+function withSortedKeys(value: unknown): unknown {
+  if (Array.isArray(value)) return value.map(withSortedKeys)
+  // A value JSON writes through toJSON (a Date) is left to it, as the replacer this replaces did.
+  if (!value || typeof value !== 'object' || typeof (value as { toJSON?: unknown }).toJSON === 'function') return value
+  const sorted: Record<string, unknown> = {}
+  for (const key of Object.keys(value).sort()) sorted[key] = withSortedKeys((value as Record<string, unknown>)[key])
+  return sorted
+}
+
+/** JSON with every object's keys sorted, so equal content always serialises to equal text (signature hashes rest on it). */
 export function sortedJson(value: unknown): string {
-  return JSON.stringify(value, (_key, v: unknown) =>
-    v && typeof v === 'object' && !Array.isArray(v) ? Object.fromEntries(Object.entries(v).sort(([a], [b]) => (a < b ? -1 : 1))) : v,
-  )
+  return JSON.stringify(withSortedKeys(value))
 }

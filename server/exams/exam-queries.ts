@@ -1,24 +1,18 @@
 import { Op, type WhereOptions } from 'sequelize'
-import type { Exam, ExamList, ExamListQuery } from '#shared/schemas/exam'
+import { EXAM_COUNT_CAP, type Exam, type ExamList, type ExamListQuery } from '#shared/schemas/exam'
 import type { User } from '#shared/schemas/user'
 import { AppError, invalidInput } from '../errors.ts'
 import { ExamModel } from '../models/index.ts'
 import { readable, scopeOf, type ExamScope } from './exam-access.ts'
 import { present } from './exam-record.ts'
 import { blindedEntryError } from '../rounds/round-blinding.ts'
+import { cappedCount } from './exam-count.ts'
+import { presentPage } from './exam-page.ts'
+import { afterCursor, cursorAfter, decodeCursor, orderOf } from './exam-keyset.ts'
 
 export interface Viewer {
   user: User
   mask: (patientCode: string) => string
-}
-
-const SORT_COLUMNS: Record<ExamListQuery['sort'], string> = {
-  examinedAt: 'examinedAt',
-  patientCode: 'patientCode',
-  status: 'status',
-  heightCm: 'verticalHeightCm',
-  cvpCmH2O: 'cvpCmH2O',
-  updatedAt: 'updatedAt',
 }
 
 const invalid = (field: string, message: string) => invalidInput({ [field]: message })
@@ -76,16 +70,31 @@ export async function getExam(viewer: Viewer, id: string): Promise<Exam> {
   return exam!
 }
 
+const offsetTooDeep = () =>
+  invalid('page', `Pages beyond the first ${EXAM_COUNT_CAP.toLocaleString('en')} exams are reached with the cursor of the page before`)
+
+/** The page's place: after the cursor, or at a page number within the counted exams. */
+async function pageStart(where: WhereOptions<ExamModel>, query: ExamListQuery) {
+  if (query.cursor) {
+    const cursor = decodeCursor(query.cursor, query.sort, query.order)
+    return { where: { [Op.and]: [where, afterCursor(ExamModel.sequelize!, cursor)] }, offset: 0, total: cursor.t, capped: cursor.c }
+  }
+  const offset = (query.page - 1) * query.pageSize
+  if (offset >= EXAM_COUNT_CAP) throw offsetTooDeep()
+  return { where, offset, ...(await cappedCount(where)) }
+}
+
+/**
+ * A page of the log. Counted once, on a page asked for by number; a cursor carries that count on, so deep pages cost
+ * one index range each (keyset paging), and an exam added or changed meanwhile never shifts the pages after it.
+ */
 export async function listExams(viewer: Viewer, query: ExamListQuery): Promise<ExamList> {
   const scope = await scopeOf(viewer.user)
-  const { rows, count } = await ExamModel.findAndCountAll({
-    where: logWhere(scope, query),
-    order: [
-      [SORT_COLUMNS[query.sort], query.order.toUpperCase()],
-      ['id', 'ASC'],
-    ],
-    limit: query.pageSize,
-    offset: (query.page - 1) * query.pageSize,
-  })
-  return { exams: await present(rows, codeFor(scope, viewer)), total: count, page: query.page, pageSize: query.pageSize }
+  const start = await pageStart(logWhere(scope, query), query)
+  const rows = await ExamModel.findAll({ where: start.where, order: orderOf(query), limit: query.pageSize + 1, offset: start.offset })
+  const page = rows.slice(0, query.pageSize)
+  const last = page.at(-1)
+  const nextCursor = rows.length > query.pageSize && last ? cursorAfter(last, query, start.total, start.capped) : null
+  const exams = await presentPage(page, codeFor(scope, viewer))
+  return { exams, total: start.total, totalCapped: start.capped, page: query.page, pageSize: query.pageSize, nextCursor }
 }

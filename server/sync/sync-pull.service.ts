@@ -2,7 +2,7 @@ import { Op, type WhereOptions } from 'sequelize'
 import type { SyncPullQuery, SyncPullResponse, SyncRemoved } from '#shared/schemas/sync'
 import { readable, scopeOf, type ExamScope } from '../exams/exam-access.ts'
 import type { Viewer } from '../exams/exam-queries.ts'
-import { present } from '../exams/exam-record.ts'
+import { presentPage } from '../exams/exam-page.ts'
 import { ExamModel } from '../models/index.ts'
 
 type Where = WhereOptions<ExamModel>
@@ -31,6 +31,26 @@ async function readableIds(rows: ExamModel[], where: Where): Promise<Set<string>
   return ids
 }
 
+/** Up to `limit + 1` changes after the cursor, in cursor order. */
+function changesIn(query: SyncPullQuery, where: Where): Promise<ExamModel[]> {
+  return ExamModel.findAll({
+    where: { [Op.and]: [{ syncSeq: { [Op.gt]: query.cursor } }, where] },
+    order: [['syncSeq', 'ASC']],
+    limit: query.limit + 1,
+  })
+}
+
+/**
+ * The readable changes and the reopened ones, each read in cursor order along its own index and merged: as one OR
+ * query SQLite would gather every match of both before sorting, all of a heavy examiner's exams after the cursor.
+ * A device at cursor 0 holds nothing pulled, so it has nothing to drop.
+ */
+async function changedAfter(query: SyncPullQuery, where: Where): Promise<ExamModel[]> {
+  const [readableRows, reopened] = await Promise.all([changesIn(query, where), query.cursor > 0 ? changesIn(query, REOPENED) : []])
+  const byId = new Map([...readableRows, ...reopened].map((row) => [row.id, row]))
+  return [...byId.values()].sort((a, b) => a.syncSeq! - b.syncSeq!).slice(0, query.limit + 1)
+}
+
 /**
  * The exams the viewer may read whose last change came after the cursor, in the order the changes were committed,
  * with patient codes as the exams API shows them; and, on the same cursor, the ids of exams the viewer read before
@@ -41,19 +61,13 @@ export async function pullChanges(viewer: Viewer, query: SyncPullQuery): Promise
   const scope = await scopeOf(viewer.user)
   const where = readable(scope)
   if (!where) return { exams: [], removed: [], cursor: query.cursor, more: false }
-  // A device at cursor 0 holds nothing pulled, so it has nothing to drop.
-  const wanted = query.cursor > 0 ? { [Op.or]: [where, REOPENED] } : where
-  const rows = await ExamModel.findAll({
-    where: { [Op.and]: [{ syncSeq: { [Op.gt]: query.cursor } }, wanted] },
-    order: [['syncSeq', 'ASC']],
-    limit: query.limit + 1,
-  })
+  const rows = await changedAfter(query, where)
   const page = rows.slice(0, query.limit)
   const visible = await readableIds(page, where)
   const removed: SyncRemoved[] = page
     .filter((row) => !visible.has(row.id) && formerReader(scope, row))
     .map((row) => ({ id: row.id, syncSeq: row.syncSeq! }))
   const shown = page.filter((row) => visible.has(row.id))
-  const exams = await present(shown, (row) => (scope.showsCode(row) ? row.patientCode : viewer.mask(row.patientCode)))
+  const exams = await presentPage(shown, (row) => (scope.showsCode(row) ? row.patientCode : viewer.mask(row.patientCode)))
   return { exams, removed, cursor: page.at(-1)?.syncSeq ?? query.cursor, more: rows.length > query.limit }
 }

@@ -400,10 +400,25 @@ export const ExamListQuerySchema = z.object({
   order: z.enum(['asc', 'desc']).default('desc'),
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(25),
+  /** The `nextCursor` of the page before, for the same filters and sort: the page after it, however deep. */
+  cursor: z.string().max(400).optional(),
 })
 export type ExamListQuery = z.infer<typeof ExamListQuerySchema>
 
-export const ExamListSchema = z.object({ exams: z.array(ExamSchema), total: z.number().int(), page: z.number().int(), pageSize: z.number().int() })
+/** How many matching exams the log counts at most: past it, `total` is this cap and `totalCapped` is true ("10,000+"). */
+export const EXAM_COUNT_CAP = 10_000
+
+export const ExamListSchema = z.object({
+  exams: z.array(ExamSchema),
+  /** Matching exams, counted up to `EXAM_COUNT_CAP`. */
+  total: z.number().int(),
+  /** More exams match than `total` says. */
+  totalCapped: z.boolean().default(false),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+  /** Opaque: send it as `cursor` for the next page; null on the last page. */
+  nextCursor: z.string().nullable().default(null),
+})
 export type ExamList = z.infer<typeof ExamListSchema>
 
 /** A 409 on a stale or locked exam carries the server's copy. */

@@ -29,8 +29,15 @@ async function unsentOrNone(userId: string | undefined): Promise<Record<string, 
 export const useExamsStore = defineStore('exams', () => {
   /** The page of the log on screen. */
   const exams = ref<Exam[]>([])
-  /** How many exams match the filters on the server. */
+  /** How many exams match the filters on the server, counted up to a cap. */
   const total = ref(0)
+  /** More exams match than `total` says: the log shows "10,000+". */
+  const totalCapped = ref(false)
+  /**
+   * The server's cursor for each page after the first, from the page before it (same filters, sort and page size):
+   * a page reached through it costs the server the same however deep it is.
+   */
+  const cursors = ref<Record<number, string>>({})
   /** Filters, sort and page of the log; kept while the user visits a record and comes back. */
   const query = ref<ExamListQuery>(ExamListQuerySchema.parse({}))
   const loading = ref(false)
@@ -47,13 +54,14 @@ export const useExamsStore = defineStore('exams', () => {
 
   async function fetchList(q: ExamListQuery) {
     try {
-      const list = await fetchExams({ ...q })
+      const list = await fetchExams({ ...q, cursor: q.page > 1 ? cursors.value[q.page] : undefined })
       return { list, local: false, syncedAt: null }
     } catch (e) {
       const userId = useSessionStore().user?.id
       // Only a missing network falls back; a refusal from the server is an answer to show.
       if (!unreachable(e) || !userId) throw e
-      return { list: await listLocalExams(userId, q), local: true, syncedAt: await loadLastSync(userId) }
+      const list = { ...(await listLocalExams(userId, q)), totalCapped: false, nextCursor: null }
+      return { list, local: true, syncedAt: await loadLastSync(userId) }
     }
   }
 
@@ -66,10 +74,13 @@ export const useExamsStore = defineStore('exams', () => {
     // read alongside the list, but never holding the rows back
     const marks = unsentOrNone(useSessionStore().user?.id)
     try {
-      const { list, local, syncedAt } = await fetchList(query.value)
+      const asked = query.value
+      const { list, local, syncedAt } = await fetchList(asked)
       if (request !== latestRequest) return
       exams.value = list.exams
       total.value = list.total
+      totalCapped.value = list.totalCapped
+      if (list.nextCursor) cursors.value = { ...cursors.value, [asked.page + 1]: list.nextCursor }
       fromDevice.value = local
       deviceSyncedAt.value = syncedAt
     } finally {
@@ -82,6 +93,7 @@ export const useExamsStore = defineStore('exams', () => {
   /** Replaces the filters and goes back to the first page. */
   function setFilters(filters: Partial<ExamFilters>) {
     query.value = { ...query.value, ...NO_FILTERS, ...filters, page: 1 }
+    cursors.value = {}
   }
 
   /** Applies the table's page and sort; returns whether anything changed, so callers reload only then. */
@@ -89,6 +101,8 @@ export const useExamsStore = defineStore('exams', () => {
     const current = query.value
     const changed = (Object.keys(paging) as (keyof ExamPaging)[]).some((key) => current[key] !== paging[key])
     if (changed) query.value = { ...current, ...paging }
+    // A cursor continues one order at one page size only.
+    if (paging.sort !== current.sort || paging.order !== current.order || paging.pageSize !== current.pageSize) cursors.value = {}
     return changed
   }
 
@@ -134,6 +148,8 @@ export const useExamsStore = defineStore('exams', () => {
   return {
     exams,
     total,
+    totalCapped,
+    cursors,
     query,
     loading,
     current,

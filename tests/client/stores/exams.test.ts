@@ -13,6 +13,8 @@ import { clearDevice, examInput, queued, save } from '../db/outbox-factory'
 
 vi.mock('@/api/exams', () => ({ fetchExams: vi.fn(), fetchExam: vi.fn(), submitExam: vi.fn() }))
 
+const lastCall = () => vi.mocked(api.fetchExams).mock.lastCall?.[0]
+
 describe('exams store', () => {
   beforeEach(() => {
     setActivePinia(createPinia())
@@ -31,6 +33,67 @@ describe('exams store', () => {
     expect(api.fetchExams).toHaveBeenCalledWith(expect.objectContaining({ sort: 'examinedAt', order: 'desc', page: 1, pageSize: 25 }))
     expect(store.exams).toEqual(rows)
     expect(store.total).toBe(40)
+  })
+
+  it('asks for the next page with the cursor the page before gave, and for the first page with none', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue({ ...makeExamList([makeExam()], 60), nextCursor: 'after-page-1' })
+    const store = useExamsStore()
+    await store.loadList()
+
+    store.setPaging({ ...store.query, page: 2 })
+    await store.loadList()
+
+    expect(vi.mocked(api.fetchExams).mock.calls[0]![0]).toMatchObject({ page: 1, cursor: undefined })
+    expect(vi.mocked(api.fetchExams).mock.calls[1]![0]).toMatchObject({ page: 2, cursor: 'after-page-1' })
+  })
+
+  it('going back to a page already seen, asks for it with the same cursor as before', async () => {
+    vi.mocked(api.fetchExams)
+      .mockResolvedValueOnce({ ...makeExamList([makeExam()], 90), nextCursor: 'after-page-1' })
+      .mockResolvedValueOnce({ ...makeExamList([makeExam()], 90), page: 2, nextCursor: 'after-page-2' })
+      .mockResolvedValue(makeExamList([makeExam()], 90))
+    const store = useExamsStore()
+    await store.loadList()
+    store.setPaging({ ...store.query, page: 2 })
+    await store.loadList()
+    store.setPaging({ ...store.query, page: 3 })
+    await store.loadList()
+
+    store.setPaging({ ...store.query, page: 2 })
+    await store.loadList()
+
+    expect(vi.mocked(api.fetchExams).mock.calls.map(([q]) => q?.cursor)).toEqual([
+      undefined,
+      'after-page-1',
+      'after-page-2',
+      'after-page-1',
+    ])
+  })
+
+  it.each([
+    ['the filters change', (store: ReturnType<typeof useExamsStore>) => store.setFilters({ status: 'submitted' })],
+    ['the sort changes', (store: ReturnType<typeof useExamsStore>) => store.setPaging({ ...store.query, sort: 'cvpCmH2O', page: 2 })],
+    ['the page size changes', (store: ReturnType<typeof useExamsStore>) => store.setPaging({ ...store.query, pageSize: 50, page: 2 })],
+  ])('when %s, forgets the cursors of the old order', async (_what, change) => {
+    vi.mocked(api.fetchExams).mockResolvedValue({ ...makeExamList([makeExam()], 60), nextCursor: 'after-page-1' })
+    const store = useExamsStore()
+    await store.loadList()
+    vi.mocked(api.fetchExams).mockClear()
+
+    change(store)
+    await store.loadList()
+
+    expect(lastCall()?.cursor).toBeUndefined()
+  })
+
+  it('keeps that more exams match than the server counted', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue({ ...makeExamList([makeExam()], 10_000), totalCapped: true, nextCursor: 'next' })
+    const store = useExamsStore()
+
+    await store.loadList()
+
+    expect(store.total).toBe(10_000)
+    expect(store.totalCapped).toBe(true)
   })
 
   it('with no network, shows the exams kept on this device for the signed-in user, filtered and sorted', async () => {

@@ -27,7 +27,7 @@ describe('sign-off store', () => {
 
   it('loading the queue also updates the count', async () => {
     const item = { exam: makeExam({ status: 'submitted' }), waitingSeconds: 60 }
-    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({ items: [item], total: 7, page: 1, pageSize: 25 })
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({ items: [item], total: 7, page: 1, pageSize: 25, totalCapped: false, nextCursor: null })
     const store = useSignoffStore()
 
     await store.loadQueue()
@@ -38,7 +38,7 @@ describe('sign-off store', () => {
   it('a countersigned exam leaves the queue and replaces the exam on screen', async () => {
     const exam = makeExam({ status: 'submitted' })
     const signed = { ...exam, status: 'countersigned' as const, signatures: [makeSignature({ examId: exam.id })] }
-    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({ items: [{ exam, waitingSeconds: 60 }], total: 1, page: 1, pageSize: 25 })
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({ items: [{ exam, waitingSeconds: 60 }], total: 1, page: 1, pageSize: 25, totalCapped: false, nextCursor: null })
     vi.mocked(supervision.countersignExam).mockResolvedValue(signed)
     vi.mocked(supervision.fetchSignoffCount).mockResolvedValue(0)
     const store = useSignoffStore()
@@ -54,7 +54,7 @@ describe('sign-off store', () => {
 
   it('a failed countersignature changes nothing', async () => {
     const exam = makeExam({ status: 'submitted' })
-    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({ items: [{ exam, waitingSeconds: 60 }], total: 1, page: 1, pageSize: 25 })
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({ items: [{ exam, waitingSeconds: 60 }], total: 1, page: 1, pageSize: 25, totalCapped: false, nextCursor: null })
     vi.mocked(supervision.countersignExam).mockRejectedValue(new Error('401'))
     const store = useSignoffStore()
     await store.loadQueue()

@@ -136,6 +136,35 @@ describe('ExamLogView', () => {
     expect(lastQuery()).toMatchObject({ sort: 'cvpCmH2O', order: 'desc' })
   })
 
+  it('when more exams match than the server counts, says "10,000+" and still offers the next page', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue({ ...makeExamList([makeExam()], 10_000), totalCapped: true, nextCursor: 'after-page-1' })
+
+    const { wrapper } = await mountLog()
+
+    expect(wrapper.find('.v-data-table-footer').text()).toContain('of 10,000+')
+    const next = wrapper.find('.v-data-table-footer button[aria-label="Next page"]')
+    expect(next.attributes('disabled')).toBeUndefined()
+  })
+
+  it('when the next page button is pressed, asks the server for it with the cursor of this page', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue({ ...makeExamList([makeExam()], 60), nextCursor: 'after-page-1' })
+    const { wrapper } = await mountLog()
+
+    await wrapper.find('.v-data-table-footer button[aria-label="Next page"]').trigger('click')
+    await flushPromises()
+
+    expect(lastQuery()).toMatchObject({ page: 2, cursor: 'after-page-1' })
+  })
+
+  it('when all matches are counted, shows the plain count', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()], 40))
+
+    const { wrapper } = await mountLog()
+
+    expect(wrapper.find('.v-data-table-footer').text()).toContain('of 40')
+    expect(wrapper.find('.v-data-table-footer').text()).not.toContain('+')
+  })
+
   it('when a row is clicked, opens that exam', async () => {
     const exam = makeExam()
     vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([exam]))

@@ -17,7 +17,7 @@ vi.mock('@/api/exams')
 const HOUR = 3600
 
 function queueOf(items: SignoffQueueItem[], total = items.length) {
-  return { items, total, page: 1, pageSize: 25 }
+  return { items, total, page: 1, pageSize: 25, totalCapped: false, nextCursor: null }
 }
 
 async function mountQueue() {

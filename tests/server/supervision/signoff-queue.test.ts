@@ -21,7 +21,7 @@ async function submittedHoursAgo(auth: string, teamId: string, hoursAgo: number,
   return exam
 }
 
-async function queueAs(auth: string, query: Record<string, number> = {}) {
+async function queueAs(auth: string, query: Record<string, number | string> = {}) {
   const res = await request(app).get('/api/signoff-queue').set('Authorization', auth).query(query)
   return { res, queue: res.status === 200 ? SignoffQueueSchema.parse(res.body) : null }
 }
@@ -67,6 +67,36 @@ describe('GET /api/signoff-queue', () => {
 
     expect(queue).toMatchObject({ total: 3, page: 2, pageSize: 2 })
     expect(queue!.items).toHaveLength(1)
+  })
+
+  it('pages on with the cursor: a newer submission waits at the end, and none is skipped or repeated', async () => {
+    const { team, resident, attending } = await makeWard()
+    const waiting = []
+    for (const hours of [5, 4, 4, 3, 2]) waiting.push(await submittedHoursAgo(resident.auth, team.id, hours))
+    const first = await queueAs(attending.auth, { pageSize: 2 })
+    const newer = await submittedHoursAgo(resident.auth, team.id, 0.5)
+
+    const seen = first.queue!.items.map((i) => i.exam.id)
+    for (let cursor = first.queue!.nextCursor, page = 2; cursor; page++) {
+      const { queue } = await queueAs(attending.auth, { pageSize: 2, page, cursor })
+      seen.push(...queue!.items.map((i) => i.exam.id))
+      cursor = queue!.nextCursor
+    }
+
+    expect(seen.slice(0, 5).sort()).toEqual(waiting.map((e) => e.id).sort())
+    expect(seen.slice(0, 2)).toEqual([waiting[0]!.id, expect.any(String)])
+    expect(seen).toEqual([...new Set(seen)])
+    expect(seen.at(-1)).toBe(newer.id)
+    expect(first.queue!.total).toBe(5)
+  })
+
+  it('when the cursor is not one the queue made, responds 400 naming the cursor', async () => {
+    const { attending } = await makeWard()
+
+    const { res } = await queueAs(attending.auth, { cursor: 'nonsense' })
+
+    expect(res.status).toBe(400)
+    expect(res.body.error.fields).toHaveProperty('cursor')
   })
 
   it('answers 403 to a resident, an educator and an admin', async () => {

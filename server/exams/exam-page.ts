@@ -1,0 +1,73 @@
+import { Op } from 'sequelize'
+import { StoredEstimateSchema, VenousSignsSchema, type Exam } from '#shared/schemas/exam'
+import { TeamModel, UserModel, type ExamModel } from '../models/index.ts'
+import { signaturesOf } from '../supervision/signatures.ts'
+import { maskCodes } from './code-masking.ts'
+import { storedInput } from './exam-columns.ts'
+
+const isCurrentEstimate = (value: unknown) => (value as { rulesVersion?: unknown } | null)?.rulesVersion === 2
+const isSignMap = (value: unknown) => !!value && typeof value === 'object' && !Array.isArray(value)
+
+/**
+ * The stored estimate as the API shows it: a current-rules one as saved (it was checked when it was computed and is
+ * never recomputed); a first-rules one in today's shape.
+ */
+function estimateOf(row: ExamModel): Exam['estimate'] {
+  const stored: unknown = JSON.parse(row.estimate)
+  return isCurrentEstimate(stored) ? (stored as Exam['estimate']) : StoredEstimateSchema.parse(stored)
+}
+
+/** Free text as the reader may see it: a masked reader gets the pseudonym wherever the code was typed. */
+function textFor(text: string, row: ExamModel, code: string): string {
+  return code === row.patientCode ? text : maskCodes(text, [row.patientCode], () => code)
+}
+
+function examOf(row: ExamModel, code: string, names: { examiner: string; team: string }, signatures: Exam['signatures']): Exam {
+  const record = storedInput(row)
+  return {
+    ...record,
+    venousSigns:
+      isSignMap(record.venousSigns) && Object.keys(record.venousSigns as object).length === 7
+        ? record.venousSigns
+        : VenousSignsSchema.parse(record.venousSigns),
+    venousConfirmed: row.venousConfirmed,
+    context: [...new Set(JSON.parse(row.context ?? '[]') as string[])],
+    patientCode: code,
+    notes: textFor(row.notes ?? '', row, code),
+    ...(row.notAssessableText ? { notAssessableText: textFor(row.notAssessableText, row, code) } : {}),
+    examinerId: row.examinerId,
+    examinerName: names.examiner,
+    teamName: names.team,
+    status: row.status,
+    version: row.version,
+    estimate: estimateOf(row),
+    createdAt: row.createdAt.toISOString(),
+    updatedAt: row.updatedAt.toISOString(),
+    submittedAt: row.submittedAt?.toISOString() ?? null,
+    signatures,
+    returnComment: row.returnComment ? textFor(row.returnComment, row, code) : null,
+  } as Exam
+}
+
+/**
+ * A page of rows in the API's exam shape, as `present` (exam-record.ts) builds one exam, for lists: names and verified
+ * signatures in one query each for the whole page, and the stored record and estimate sent as saved, not parsed again.
+ */
+export async function presentPage(rows: ExamModel[], codeOf: (row: ExamModel) => string): Promise<Exam[]> {
+  if (!rows.length) return []
+  const [users, teams, signatures] = await Promise.all([
+    UserModel.findAll({
+      attributes: ['id', 'displayName'],
+      where: { id: { [Op.in]: [...new Set(rows.map((r) => r.examinerId))] } },
+      raw: true,
+    }),
+    TeamModel.findAll({ attributes: ['id', 'name'], where: { id: { [Op.in]: [...new Set(rows.map((r) => r.teamId))] } }, raw: true }),
+    signaturesOf(rows),
+  ])
+  const userNames = new Map(users.map((u) => [u.id, u.displayName]))
+  const teamNames = new Map(teams.map((t) => [t.id, t.name]))
+  return rows.map((row) => {
+    const names = { examiner: userNames.get(row.examinerId) ?? '', team: teamNames.get(row.teamId) ?? '' }
+    return examOf(row, codeOf(row), names, signatures.get(row.id) ?? [])
+  })
+}
