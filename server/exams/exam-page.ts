@@ -2,7 +2,6 @@ import { Op } from 'sequelize'
 import { StoredEstimateSchema, VenousSignsSchema, type Exam } from '#shared/schemas/exam'
 import { TeamModel, UserModel, type ExamModel } from '../models/index.ts'
 import { signaturesOf } from '../supervision/signatures.ts'
-import { maskCodes } from './code-masking.ts'
 import { storedInput } from './exam-columns.ts'
 
 const isCurrentEstimate = (value: unknown) => (value as { rulesVersion?: unknown } | null)?.rulesVersion === 2
@@ -17,9 +16,13 @@ function estimateOf(row: ExamModel): Exam['estimate'] {
   return isCurrentEstimate(stored) ? (stored as Exam['estimate']) : StoredEstimateSchema.parse(stored)
 }
 
-/** Free text as the reader may see it: a masked reader gets the pseudonym wherever the code was typed. */
-function textFor(text: string, row: ExamModel, code: string): string {
-  return code === row.patientCode ? text : maskCodes(text, [row.patientCode], () => code)
+/**
+ * The free text (notes, the "other" reason, a return comment) for a reader who sees the patient code: as written.
+ * A reader who sees the code masked (an educator) gets none of it: free text can name any patient, not only this one.
+ */
+function freeTextFor(row: ExamModel, code: string) {
+  if (code !== row.patientCode) return { notes: '', notAssessableText: null, returnComment: null }
+  return { notes: row.notes ?? '', returnComment: row.returnComment ?? null }
 }
 
 function examOf(row: ExamModel, code: string, names: { examiner: string; team: string }, signatures: Exam['signatures']): Exam {
@@ -33,8 +36,7 @@ function examOf(row: ExamModel, code: string, names: { examiner: string; team: s
     venousConfirmed: row.venousConfirmed,
     context: [...new Set(JSON.parse(row.context ?? '[]') as string[])],
     patientCode: code,
-    notes: textFor(row.notes ?? '', row, code),
-    ...(row.notAssessableText ? { notAssessableText: textFor(row.notAssessableText, row, code) } : {}),
+    ...freeTextFor(row, code),
     examinerId: row.examinerId,
     examinerName: names.examiner,
     teamName: names.team,
@@ -45,7 +47,6 @@ function examOf(row: ExamModel, code: string, names: { examiner: string; team: s
     updatedAt: row.updatedAt.toISOString(),
     submittedAt: row.submittedAt?.toISOString() ?? null,
     signatures,
-    returnComment: row.returnComment ? textFor(row.returnComment, row, code) : null,
   } as Exam
 }
 
