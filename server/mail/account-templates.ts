@@ -21,7 +21,7 @@ export function invitation(p: TokenLink & { inviterName: string; displayName: st
       `Hello ${p.displayName},`,
       `${p.inviterName} has made you a Plumbline account for recording the jugular venous pressure exam at the bedside.`,
       `Choose your password here: ${tokenLink(p.baseUrl, '/invitation', p.token)}`,
-      `The link works once, until ${dateTimeText(p.expiresAt, p.timeZone)}.`,
+      `The link works once, until ${dateTimeText(p.expiresAt, p.timeZone, p.locale)}.`,
     ),
   }
 }
@@ -34,7 +34,7 @@ export function passwordReset(p: TokenLink): MailMessage {
     subject: 'Reset your Plumbline password',
     text: body(
       `Someone asked to reset the password of this Plumbline account. Choose a new one here: ${tokenLink(p.baseUrl, '/reset-password', p.token)}`,
-      `The link works once, until ${dateTimeText(p.expiresAt, p.timeZone)}. If you did not ask, ignore this message; your password stays as it is.`,
+      `The link works once, until ${dateTimeText(p.expiresAt, p.timeZone, p.locale)}. If you did not ask, ignore this message; your password stays as it is.`,
     ),
   }
 }

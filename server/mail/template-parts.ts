@@ -1,3 +1,4 @@
+import { formatDate, formatDateTimeZone } from '#shared/domain/date-time'
 import type { MailMessage } from './mailer.ts'
 
 /** What an e-mail may say about an exam. E-mail is not a safe channel for patient identifiers. */
@@ -14,6 +15,8 @@ export interface TemplateContext {
   baseUrl: string
   /** IANA zone for dates and times; the server's own by default. */
   timeZone?: string
+  /** Locale (BCP 47) for dates and times; the server's own by default. */
+  locale?: string
 }
 
 export type { MailMessage }
@@ -25,17 +28,17 @@ export function link(baseUrl: string, path: string): string {
   return `${baseUrl.replace(/\/+$/, '')}${path}`
 }
 
-export function dateText(value: Date | string, timeZone?: string): string {
-  return new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeZone }).format(new Date(value))
+export function dateText(value: Date | string, timeZone?: string, locale?: string): string {
+  return formatDate(value, { timeZone, locale })
 }
 
 /** Date and time with the zone's name, as a signature must show them. */
-export function dateTimeText(value: Date | string, timeZone?: string): string {
-  return new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'long', timeZone }).format(new Date(value))
+export function dateTimeText(value: Date | string, timeZone?: string, locale?: string): string {
+  return formatDateTimeZone(value, { timeZone, locale })
 }
 
-export function examText(exam: ExamRef, timeZone?: string): string {
-  return `an exam recorded on ${dateText(exam.examinedAt, timeZone)} in ${exam.teamName}`
+export function examText(exam: ExamRef, timeZone?: string, locale?: string): string {
+  return `an exam recorded on ${dateText(exam.examinedAt, timeZone, locale)} in ${exam.teamName}`
 }
 
 export function examLink(baseUrl: string, exam: ExamRef): string {

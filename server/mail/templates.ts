@@ -16,7 +16,7 @@ export function countersignRequested(p: TemplateContext & { to: string[]; reside
     to: p.to,
     subject: `Countersignature requested by ${p.residentName}`,
     text: body(
-      `${p.residentName} asks you to review and countersign ${examText(p.exam, p.timeZone)}.`,
+      `${p.residentName} asks you to review and countersign ${examText(p.exam, p.timeZone, p.locale)}.`,
       `Open it in Plumbline: ${examLink(p.baseUrl, p.exam)}`,
       AID_NOTE,
     ),
@@ -30,7 +30,7 @@ export function examReturned(p: TemplateContext & { to: string; attendingName: s
     to: [p.to],
     subject: `Exam returned by ${p.attendingName}`,
     text: body(
-      `${p.attendingName} returned ${examText(p.exam, p.timeZone)} for changes, with this comment:`,
+      `${p.attendingName} returned ${examText(p.exam, p.timeZone, p.locale)} for changes, with this comment:`,
       scrub(p.comment, p.exam.patientCode),
       `Amend and resubmit it in Plumbline: ${examLink(p.baseUrl, p.exam)}`,
       AID_NOTE,
@@ -68,8 +68,8 @@ export function examCountersigned(
     to: [p.to],
     subject: `Exam countersigned by ${p.signerName}`,
     text: body(
-      `${p.signerName} countersigned ${examText(p.exam, p.timeZone)}.`,
-      `Signed by ${p.signerName}, ${dateTimeText(p.signedAt, p.timeZone)}, meaning: ${MEANING_TEXT[p.meaning]}.`,
+      `${p.signerName} countersigned ${examText(p.exam, p.timeZone, p.locale)}.`,
+      `Signed by ${p.signerName}, ${dateTimeText(p.signedAt, p.timeZone, p.locale)}, meaning: ${MEANING_TEXT[p.meaning]}.`,
       ...teachingParagraphs(p),
       `See the signed record in Plumbline: ${examLink(p.baseUrl, p.exam)}`,
       AID_NOTE,
@@ -81,7 +81,7 @@ export function examCountersigned(
 export function roundOpened(
   p: TemplateContext & { to: string[]; educatorName: string; roundName: string; roundId: string; closesAt?: Date | string },
 ): MailMessage {
-  const closes = p.closesAt ? ` It closes ${dateTimeText(p.closesAt, p.timeZone)}.` : ''
+  const closes = p.closesAt ? ` It closes ${dateTimeText(p.closesAt, p.timeZone, p.locale)}.` : ''
   return {
     template: 'round-opened',
     to: p.to,

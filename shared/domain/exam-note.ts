@@ -1,5 +1,6 @@
 import type { Exam } from '../schemas/exam.ts'
 import type { EstimateSettings } from '../schemas/settings.ts'
+import { formatDateTimeZone } from './date-time.ts'
 import { STATUS_LABEL, VEIN_LABEL } from './exam-labels.ts'
 import { columnLine, estimateLine, findingsLine, interpretationLine, modelLine, venousSignsLine } from './exam-note-lines.ts'
 import { promptStatement } from './estimate-text.ts'
@@ -12,18 +13,12 @@ export { bandText, oneDp } from './number-text.ts'
 export interface ExamNoteOptions {
   /** IANA zone for the exam time; the runtime's own zone when omitted. */
   timeZone?: string
+  /** The reader's locale (BCP 47) for the exam time; the runtime's own when omitted. */
+  locale?: string
   /** Add Plumbline's prompts (each labelled, with its differential); left out unless the clinician adds them. */
   includePrompts?: boolean
   /** The settings the estimate was computed with, for the elevated threshold; the defaults when omitted. */
   settings?: EstimateSettings
-}
-
-function examinedText(iso: string, timeZone?: string): string {
-  const format = new Intl.DateTimeFormat('en-GB', {
-    ...{ day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' },
-    ...{ hourCycle: 'h23', timeZoneName: 'short', timeZone },
-  } as const)
-  return format.format(new Date(iso))
 }
 
 /** Arterial evidence and too few venous signs are warnings; the other cautions are notes on how to read the number. */
@@ -45,7 +40,7 @@ export function formatExamNote(exam: Exam, options: ExamNoteOptions = {}): strin
   const prompts = options.includePrompts && e.prompts.length ? ['Prompts from Plumbline (to consider, not findings):', ...e.prompts.map(promptStatement)] : []
   const lines = [
     `Bedside JVP exam, patient ${exam.patientCode}`,
-    `Examined ${examinedText(exam.examinedAt, options.timeZone)} by ${exam.examinerName} (${exam.teamName}).`,
+    `Examined ${formatDateTimeZone(exam.examinedAt, options)} by ${exam.examinerName} (${exam.teamName}).`,
     `Position: trunk at ${exam.inclinationDeg}° from horizontal (${sensor}); ${VEIN_LABEL[exam.vein]} vein.`,
     columnLine(exam),
     ...cautions.first,

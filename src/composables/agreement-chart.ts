@@ -28,7 +28,7 @@ function useChartColors() {
 
 /**
  * What every agreement chart shares: the registered chart.js parts, the theme's colours, and options with themed
- * axes (titled when given a title) and the legend below. AgreementChartFigure.vue gives each its caption.
+ * axes (titled when given a title) and the legend below. components/chart/ChartFigure.vue gives each its caption.
  */
 export function useAgreementChart(axisTitles: () => { x?: string; y?: string }) {
   const colors = useChartColors()

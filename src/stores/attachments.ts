@@ -4,12 +4,25 @@ import { ATTACHMENTS_PER_EXAM, type Attachment } from '#shared/schemas/attachmen
 import { readApiError } from '@/api/client'
 import { deleteAttachment, fetchAttachmentBlob, fetchAttachments, fetchPhotosAllowed } from '@/api/attachments'
 import { addLocalPhotos, removeLocalPhoto, retryLocalPhoto, watchLocalAttachments, type LocalAttachment } from '@/db/attachments'
+import { loadDraft } from '@/db/drafts'
+import { loadLocalExam } from '@/db/local-exams'
+import { queuedFor } from '@/db/outbox-queries'
 import { storageProblem } from '@/db/storage-errors'
 import { useSessionStore } from './session'
 import { useSyncStore } from './sync'
 
 function objectUrl(blob: Blob): string {
   return typeof URL.createObjectURL === 'function' ? URL.createObjectURL(blob) : ''
+}
+
+/**
+ * Whether the server cannot have this exam yet: a bedside draft never saved, or a first save still waiting in the
+ * outbox. Asking for its photos would only answer 404.
+ */
+async function notOnServerYet(examId: string, userId: string): Promise<boolean> {
+  const queued = (await queuedFor([examId])).get(examId) ?? []
+  if (queued.some((item) => item.authorId === userId && item.baseVersion === null)) return true
+  return !(await loadLocalExam(examId, userId)) && !!(await loadDraft(examId))
 }
 
 /**
@@ -47,6 +60,12 @@ export const useAttachmentsStore = defineStore('attachments', () => {
   async function loadStored() {
     const id = examId.value
     if (!id) return
+    const notYet = !!session.user && (await notOnServerYet(id, session.user.id).catch(() => false))
+    if (examId.value !== id) return
+    if (notYet) {
+      stored.value = []
+      return
+    }
     try {
       const list = await fetchAttachments(id)
       if (examId.value !== id) return
@@ -75,8 +94,8 @@ export const useAttachmentsStore = defineStore('attachments', () => {
     if (rows.length < before) void loadStored()
   }
 
-  /** Shows the photos of one exam; `editable` also asks whether the hospital allows photos. */
-  function open(id: string, editable: boolean) {
+  /** Shows the photos of one exam; `editable` also asks whether the hospital allows photos. Settles once the server's list is in. */
+  function open(id: string, editable: boolean): Promise<void> {
     stopWatching?.()
     examId.value = id
     local.value = []
@@ -84,8 +103,8 @@ export const useAttachmentsStore = defineStore('attachments', () => {
     storedNote.value = ''
     problems.value = []
     stopWatching = watchLocalAttachments(id, showLocal)
-    void loadStored()
     if (editable) void fetchPhotosAllowed().then((value) => (allowed.value = value), () => undefined)
+    return loadStored()
   }
 
   /** Stops watching and lets go of every object URL. */

@@ -1,3 +1,10 @@
+import { NO_NAMES, fieldLines, isFromTo, valueText, type ChangeLine } from './audit-lines'
+import type { AuditWords } from './audit-fields'
+import { capitalise } from './exam-words'
+
+export type { AuditWords } from './audit-fields'
+export { valueText, type ChangeLine } from './audit-lines'
+
 const ACTION_LABEL: Record<string, string> = {
   login: 'Signed in',
   'login-failed': 'Sign-in failed',
@@ -38,35 +45,41 @@ export function actionLabel(action: string): string {
   return ACTION_LABEL[action] ?? action
 }
 
-export interface ChangeLine {
-  field: string
-  /** Set for a changed field; absent for other details such as a failure's reason. */
-  from?: string
-  to: string
-}
-
-const MAX_TEXT = 80
-
-function shorten(text: string): string {
-  return text.length > MAX_TEXT ? `${text.slice(0, MAX_TEXT - 1)}…` : text
-}
-
-/** A stored before/after value as short readable text. */
-export function valueText(value: unknown): string {
-  if (value === null || value === undefined || value === '') return '—'
-  if (Array.isArray(value)) return value.length ? shorten(value.map(valueText).join(', ')) : 'none'
-  if (typeof value === 'object')
-    return shorten(Object.entries(value).map(([key, inner]) => `${key} ${valueText(inner)}`).join('; '))
-  return shorten(String(value))
-}
-
-function isFromTo(value: unknown): value is { from: unknown; to: unknown } {
-  return typeof value === 'object' && value !== null && 'from' in value && 'to' in value
-}
-
-/** An event's `changes` as lines: "field: before → after" for changed fields, "field: value" for other details. */
-export function changeLines(changes: Record<string, unknown> | null): ChangeLine[] {
+/** An event's `changes` as stored: "field: before → after" for changed fields, "field: value" for other details. */
+export function rawChangeLines(changes: Record<string, unknown> | null): ChangeLine[] {
   return Object.entries(changes ?? {}).map(([field, value]) =>
     isFromTo(value) ? { field, from: valueText(value.from), to: valueText(value.to) } : { field, to: valueText(value) },
   )
+}
+
+/**
+ * An event's `changes` in the words of the form: its labels, its values (team names, units, venous signs as
+ * present/absent/not tested, one time format); ids and hashes are marked `detail`. A new record (`created`) lists
+ * what it was made with, leaving out empty fields and the "before" that it never had.
+ */
+export function changeLines(changes: Record<string, unknown> | null, names: AuditWords = NO_NAMES, created = false): ChangeLine[] {
+  const lines = Object.entries(changes ?? {}).flatMap(([field, value]) => fieldLines(field, value, names))
+  return created ? lines.filter((line) => line.to !== '—').map(({ from: _from, ...line }) => line) : lines
+}
+
+/** Whether an action makes a new record, whose changes are its first values. */
+export const isCreation = (action: string) => action.endsWith('-create')
+
+/** The words an event needs from the teams the reader can see. */
+export function wordsFromTeams(teams: readonly { id: string; name: string }[]): AuditWords {
+  const names = new Map(teams.map((team) => [team.id, team.name]))
+  return { teamName: (id) => names.get(id) }
+}
+
+const ENTITY_LABEL: Record<string, string> = {
+  exam: 'Exam',
+  user: 'Account',
+  round: 'Calibration round',
+  settings: 'Settings',
+  export: 'Export',
+}
+
+/** The kind of record an event is about, in words. */
+export function entityLabel(entityType: string | null): string {
+  return entityType ? (ENTITY_LABEL[entityType] ?? capitalise(entityType)) : ''
 }

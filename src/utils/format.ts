@@ -1,11 +1,23 @@
+import { formatDate as formatDay, formatDateTime as formatTime, formatDateTimeZone } from '#shared/domain/date-time'
 import { bandText, oneDp } from '#shared/domain/exam-note'
 import type { Estimate } from '#shared/schemas/exam'
 
-const dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' })
+// The browser's own locale and zone: the reader's.
+const READER = {}
 
-/** An ISO time in the reader's own locale and zone. */
+/** An ISO time in the reader's own locale and zone, e.g. "14 Mar 2026, 09:30", or a dash. */
 export function formatDateTime(iso: string | null | undefined): string {
-  return iso ? dateTime.format(new Date(iso)) : '—'
+  return iso ? formatTime(iso, READER) : '—'
+}
+
+/** An ISO time's calendar day in the reader's locale and zone, or a dash. */
+export function formatDate(iso: string | null | undefined): string {
+  return iso ? formatDay(iso, READER) : '—'
+}
+
+/** An ISO time with the zone it is read in, as a signature shows it, e.g. "14 Mar 2026, 09:30 GMT (Europe/London)". */
+export function formatDateTimeWithZone(iso: string | null | undefined, timeZone?: string): string {
+  return iso ? formatDateTimeZone(iso, { timeZone }) : '—'
 }
 
 /** A length or pressure to one decimal place, or a dash when there is none. */

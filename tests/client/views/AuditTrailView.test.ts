@@ -9,11 +9,13 @@ import { routes } from '@/router/routes'
 import { useSessionStore } from '@/stores/session'
 import * as admin from '@/api/admin'
 import * as audit from '@/api/audit'
+import * as teamsApi from '@/api/teams'
 import { formatDateTime } from '@/utils/format'
 import { makeUser } from '../factories/user'
 
 vi.mock('@/api/audit')
 vi.mock('@/api/admin')
+vi.mock('@/api/teams')
 
 function makeEvent(overrides: Partial<AuditEvent> = {}): AuditEvent {
   return {
@@ -49,20 +51,45 @@ describe('AuditTrailView', () => {
     setActivePinia(createPinia())
     vi.mocked(audit.fetchAuditPage).mockReset().mockResolvedValue(pageOf([makeEvent()]))
     vi.mocked(admin.fetchUsers).mockResolvedValue([makeUser({ id: 'att-1', displayName: 'Dr Tomas Lindqvist', roles: ['attending'] })])
+    vi.mocked(teamsApi.fetchTeams).mockResolvedValue([
+      { id: 'team-7n', name: 'Ward 7 North', members: [] },
+      { id: 'team-icu', name: 'Intensive care', members: [] },
+    ])
   })
 
   afterEach(() => {
     document.body.innerHTML = ''
   })
 
-  it('asks for the first page, newest first, and shows who did what, to which record, with before → after', async () => {
+  it('asks for the first page, newest first, and shows who did what, to which kind of record, with before → after in words', async () => {
     const wrapper = await mountTrail()
 
     const row = wrapper.find('[data-testid="audit-table"] tbody tr').text()
     expect(lastQuery()).toMatchObject({ page: 1, pageSize: 50 })
     expect(row).toContain('Dr Tomas Lindqvist')
     expect(row).toContain('Countersigned')
-    expect(row).toContain('exam-1')
+    expect(row).toContain('Exam')
+    expect(row).toContain('Status: Submitted → Countersigned')
+    expect(row).not.toContain('exam-1')
+  })
+
+  it('shows a change of team by the team names, never the ids', async () => {
+    const changes = { teamId: { from: 'team-7n', to: 'team-icu' } }
+    vi.mocked(audit.fetchAuditPage).mockResolvedValue(pageOf([makeEvent({ action: 'exam-update', changes })]))
+
+    const wrapper = await mountTrail()
+
+    expect(wrapper.find('[data-testid="audit-changes"]').text()).toBe('Team: Ward 7 North → Intensive care')
+  })
+
+  it('when "Details" is switched on, shows the record id, the action key and the values as stored', async () => {
+    const wrapper = await mountTrail()
+
+    await wrapper.find('[data-testid="audit-details"] input').setValue(true)
+
+    const row = wrapper.find('[data-testid="audit-table"] tbody tr').text()
+    expect(wrapper.find('[data-testid="audit-entity-id"]').text()).toBe('exam-1')
+    expect(row).toContain('exam-countersign')
     expect(row).toContain('status: submitted → countersigned')
   })
 
@@ -115,7 +142,7 @@ describe('AuditTrailView', () => {
 
     const wrapper = await mountTrail()
 
-    expect(wrapper.find('[data-testid="audit-changes"]').text()).toBe('reason: wrong-password')
+    expect(wrapper.find('[data-testid="audit-changes"]').text()).toBe('Reason: Wrong password')
   })
 
   it('when nothing matches, says so', async () => {

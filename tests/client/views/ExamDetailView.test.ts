@@ -13,6 +13,7 @@ import { makeExam } from '../components/exam/make-exam'
 import { httpError } from '../factories/http-error'
 import { makeSignature } from '../factories/signature'
 import { makeUser } from '../factories/user'
+import { formatDateTimeWithZone } from '@/utils/format'
 
 vi.mock('@/api/exams', () => ({ fetchExams: vi.fn(), fetchExam: vi.fn(), submitExam: vi.fn(), updateExam: vi.fn() }))
 vi.mock('@/api/supervision')
@@ -132,14 +133,24 @@ describe('ExamDetailView', () => {
     expect(vi.mocked(writeText).mock.calls[0]?.[0]).toContain('Countersigned by Dr Tomas Lindqvist, 14 Jul 2026, 09:30 BST')
   })
 
-  it('shows the attending\'s comment at the top of a returned exam and offers resubmitting and amending', async () => {
+  it('shows the attending\'s comment at the top of a returned exam and offers one clear action, "Edit and resubmit", without "Amend"', async () => {
     const exam = makeExam({ status: 'returned', returnComment: 'Recheck the height with a ruler.' })
 
     const wrapper = await mountDetail(exam)
 
     expect(wrapper.find('[data-testid="exam-return-comment"]').text()).toContain('Recheck the height with a ruler.')
-    expect(wrapper.find('[data-testid="exam-submit"]').text()).toContain('Resubmit')
+    expect(wrapper.find('[data-testid="exam-edit"]').text()).toBe('Edit and resubmit')
+    expect(wrapper.find('[data-testid="exam-edit"]').attributes('href')).toBe(`/record/${exam.id}`)
+    expect(wrapper.text()).not.toContain('Edit findings')
+    expect(wrapper.find('[data-testid="exam-amend"]').exists()).toBe(false)
+    expect(wrapper.find('[data-testid="exam-submit"]').text()).toBe('Resubmit unchanged')
+  })
+
+  it('offers "Amend" on the author\'s countersigned exam, which can no longer be edited directly', async () => {
+    const wrapper = await mountDetail(makeExam({ status: 'countersigned', signatures: [makeSignature()] }))
+
     expect(wrapper.find('[data-testid="exam-amend"]').exists()).toBe(true)
+    expect(wrapper.find('[data-testid="exam-edit"]').exists()).toBe(false)
   })
 
   it('amending a countersigned exam warns that the signature will be superseded, then reopens it as a draft', async () => {
@@ -192,7 +203,7 @@ describe('ExamDetailView', () => {
     expect(events).toHaveLength(2)
     expect(events[1]!.text()).toContain('Exam changed')
     expect(events[1]!.text()).toContain('Dr Sam Whitcombe')
-    expect(events[1]!.text()).toContain('heightCm: 3 → 4')
+    expect(events[1]!.text()).toContain('Above the sternal angle: 3.0 cm → 4.0 cm')
   })
 
   it('the copied note leaves the prompts out unless the clinician ticks "add prompts to the note"', async () => {
@@ -318,5 +329,45 @@ describe('ExamDetailView', () => {
 
     expect(wrapper.find('[data-testid="exam-timeline-link"]').exists()).toBe(false)
     expect(wrapper.find('[data-testid="exam-references"]').exists()).toBe(false)
+  })
+
+  describe('when printed', () => {
+    const hiddenOnPaper = (element: Element | null) => !!element?.closest('.d-print-none')
+
+    it('leaves out the actions, the export menu and the history, and keeps the result, the caution and the signatures', async () => {
+      const wrapper = await mountDetail(makeExam({ status: 'countersigned', signatures: [makeSignature()] }))
+
+      for (const id of ['exam-copy-note', 'exam-export', 'exam-history']) expect(hiddenOnPaper(wrapper.find(`[data-testid="${id}"]`).element)).toBe(true)
+      for (const id of ['exam-result', 'exam-caution', 'exam-signatures', 'exam-findings'])
+        expect(hiddenOnPaper(wrapper.find(`[data-testid="${id}"]`).element)).toBe(false)
+    })
+
+    it('says on paper alone when no countersignature stands, and when it was printed', async () => {
+      const wrapper = await mountDetail(makeExam({ status: 'submitted' }))
+
+      const note = wrapper.find('[data-testid="exam-print-note"]')
+      expect(note.classes()).toEqual(expect.arrayContaining(['d-none', 'd-print-block']))
+      expect(note.text()).toContain('Not countersigned (submitted).')
+      expect(note.text()).toMatch(/Printed .+\./)
+    })
+
+    it('stamps the time of printing, not of opening the page', async () => {
+      vi.useFakeTimers({ toFake: ['Date'] })
+      vi.setSystemTime(new Date('2026-03-14T09:00:00Z'))
+      const wrapper = await mountDetail(makeExam())
+
+      vi.setSystemTime(new Date('2026-03-14T11:45:00Z'))
+      window.dispatchEvent(new Event('beforeprint'))
+      await flushPromises()
+      vi.useRealTimers()
+
+      expect(wrapper.find('[data-testid="exam-print-note"]').text()).toContain(`Printed ${formatDateTimeWithZone('2026-03-14T11:45:00Z')}.`)
+    })
+
+    it('does not say "Not countersigned" on a countersigned record', async () => {
+      const wrapper = await mountDetail(makeExam({ status: 'countersigned', signatures: [makeSignature()] }))
+
+      expect(wrapper.find('[data-testid="exam-print-note"]').text()).not.toContain('Not countersigned')
+    })
   })
 })

@@ -10,7 +10,7 @@ import {
   type ExamRef,
 } from '../../../server/mail/templates.ts'
 
-const BASE = { baseUrl: 'https://plumbline.example.org/', timeZone: 'Europe/Paris' }
+const BASE = { baseUrl: 'https://plumbline.example.org/', timeZone: 'Europe/Paris', locale: 'en-GB' }
 const PATIENT_CODE = 'MRN-88412'
 const AID = /aid to the bedside exam; clinical judgement decides/
 
@@ -55,7 +55,7 @@ describe('e-mail templates', () => {
     })
 
     expect(message.subject).toBe('Exam countersigned by Dr Hale')
-    expect(message.text).toContain('Signed by Dr Hale, 3 Dec 2026, 14:05:00 CET, meaning: reviewed after re-examining the patient.')
+    expect(message.text).toContain('Signed by Dr Hale, 3 Dec 2026, 14:05 CET (Europe/Paris), meaning: reviewed after re-examining the patient.')
   })
 
   it('never puts the patient code in an e-mail, not even when an attending typed it into a comment', () => {
@@ -76,7 +76,7 @@ describe('e-mail templates', () => {
 
     expect(message).toMatchObject({ template: 'invitation', to: ['new@example.test'], subject: 'Dr Lim invites you to Plumbline' })
     expect(message.text).toContain('https://plumbline.example.org/invitation#token=tok%201')
-    expect(message.text).toContain('until 10 Dec 2026, 13:00:00 CET')
+    expect(message.text).toContain('until 10 Dec 2026, 13:00 CET (Europe/Paris)')
   })
 
   it('sends a password reset link to the account holder alone', () => {
@@ -92,5 +92,15 @@ describe('e-mail templates', () => {
     expect(message).toMatchObject({ template: 'round-opened', to: ['e1@example.test', 'e2@example.test'], subject: 'Calibration round open: December' })
     expect(message.text).toContain("see the others' readings only once the round closes")
     expect(message.text).toContain('https://plumbline.example.org/rounds/r1')
+  })
+
+  it('writes dates in the locale it is given, with the zone of the signer beside the time', () => {
+    const context = { ...BASE, locale: 'en-US', to: 'r@example.test', signerName: 'Dr Hale', meaning: 'reviewed-agree' as const }
+
+    const signed = examCountersigned({ ...context, signedAt: '2026-12-03T13:05:00Z', exam: makeExam() })
+
+    // en-US orders month before day and names the zone by its offset (Unicode CLDR); the 24-hour clock and the IANA zone stay.
+    expect(signed.text).toContain('Signed by Dr Hale, Dec 3, 2026, 14:05 GMT+1 (Europe/Paris)')
+    expect(signed.text).toContain('an exam recorded on Dec 3, 2026 in Ward 7')
   })
 })

@@ -5,6 +5,15 @@ import { makeApiExam as makeExam } from '../api-exam'
 import { makeSignature } from '../signature'
 
 describe('formatExamNote', () => {
+  it('writes the exam time in the reader locale with its zone, as the app and the e-mails do', () => {
+    const exam = makeExam()
+
+    const note = formatExamNote(exam, { timeZone: 'Europe/Paris', locale: 'en-US' })
+
+    // 09:30 UTC is 10:30 in Paris in March; en-US puts the month first and names the zone by its offset (Unicode CLDR).
+    expect(note).toContain('Examined Mar 14, 2026, 10:30 GMT+1 (Europe/Paris) by')
+  })
+
   it('for the worked example, gives 13.7 cmH₂O, 10.1 mmHg, the band 9.2–18.2 and the model', () => {
     const exam = makeExam()
 
@@ -20,7 +29,7 @@ describe('formatExamNote', () => {
   it('names the patient, the time, the examiner, the inclination source, the vein and the height with its method', () => {
     const exam = makeExam({ inclinationSource: 'sensor' })
 
-    const note = formatExamNote(exam, { timeZone: 'UTC' })
+    const note = formatExamNote(exam, { timeZone: 'UTC', locale: 'en-GB' })
 
     expect(note).toContain('patient SM-0142')
     expect(note).toContain('14 Mar 2026, 09:30 UTC')

@@ -54,4 +54,14 @@ describe('SyncStatus in the app bar', () => {
 
     expect(details()).toContain('Sign in again to send your exams')
   })
+
+  it('keeps the menu within a phone screen and lets a long message wrap instead of cutting it', async () => {
+    const lastError = 'The server refused the exam because its team no longer exists; ask an admin to restore the team'
+    await mountStatus({ lastError })
+
+    const card = document.querySelector<HTMLElement>('[data-testid="sync-details"]')!
+    expect(card.classList).toContain('sync-details')
+    expect(card.style.maxWidth).toContain('100vw')
+    expect(card.textContent).toContain(lastError)
+  })
 })
