@@ -23,7 +23,13 @@ export function authRouter({ secret, cookieSecure, loginAttempts }: AuthRouterOp
   router.post('/login', textCredentials('email', 'password'), limiter, async (req, res) =>
     send(res, await login(secret, LoginInputSchema.parse(req.body))),
   )
-  router.post('/refresh', async (req, res) => send(res, await refresh(secret, req.cookies?.[REFRESH_COOKIE])))
+  // No cookie at all is the normal state of a visitor, not a failure: 204 keeps the sign-in page's probe out of the
+  // browser's console errors. A presented token that is invalid or expired still answers 401.
+  router.post('/refresh', async (req, res) => {
+    const token: unknown = req.cookies?.[REFRESH_COOKIE]
+    if (token === undefined) return void res.status(204).end()
+    send(res, await refresh(secret, typeof token === 'string' ? token : ''))
+  })
   router.post('/logout', async (req, res) => {
     await logout(req.cookies?.[REFRESH_COOKIE])
     res.clearCookie(REFRESH_COOKIE, cookie).status(204).end()

@@ -1,13 +1,16 @@
 import { HealthSchema, SessionSchema, UserSchema } from '#shared/schemas/user'
-import type { LoginInput } from '#shared/schemas/user'
+import type { LoginInput, Session } from '#shared/schemas/user'
 import { api } from './client'
 
 export function login(input: LoginInput) {
   return api.post('auth/login', { json: input }).json().then((body) => SessionSchema.parse(body))
 }
 
-export function refresh() {
-  return api.post('auth/refresh').json().then((body) => SessionSchema.parse(body))
+/** A new session from the refresh cookie; null when the browser holds none (the server answers 204, nobody signed in). */
+export async function refresh(): Promise<Session | null> {
+  const response = await api.post('auth/refresh')
+  if (response.status === 204) return null
+  return SessionSchema.parse(await response.json())
 }
 
 export async function logout() {

@@ -4,13 +4,15 @@ import { isHTTPError } from 'ky'
 import type { LoginInput, Role, User } from '#shared/schemas/user'
 import * as auth from '@/api/auth'
 import { accessToken } from '@/api/token'
-import { loadProfile, saveProfile } from '@/db/meta'
-import { unsyncedWorkOnDevice } from '@/db/outbox'
-import { wipeLocalData } from '@/db/wipe'
+import type { unsyncedWorkOnDevice } from '@/db/outbox'
 
 export type RenewOutcome = 'renewed' | 'refused' | 'unreachable'
 /** What signing out would destroy: queued changes and unfinished exams on this device. */
 export type UnsyncedWork = Awaited<ReturnType<typeof unsyncedWorkOnDevice>>
+
+// The device database (Dexie and the schemas of what it keeps) loads only when a session needs it: the first page a
+// visitor opens, sign-in, is smaller without it.
+const deviceMeta = () => import('@/db/meta')
 
 export const useSessionStore = defineStore('session', () => {
   const user = ref<User | null>(null)
@@ -26,7 +28,7 @@ export const useSessionStore = defineStore('session', () => {
   function applySession(session: { token: string; user: User } | null) {
     token.value = session?.token ?? null
     user.value = session?.user ?? null
-    if (session) void saveProfile(session.user).catch(() => undefined)
+    if (session) void deviceMeta().then((meta) => meta.saveProfile(session.user)).catch(() => undefined)
   }
 
   async function loadDemoFlag() {
@@ -37,11 +39,11 @@ export const useSessionStore = defineStore('session', () => {
     try {
       applySession(await auth.refresh())
     } catch (e) {
-      // 401 just means nobody is signed in; another answer also leaves us signed out
+      // 401: the cookie was refused (expired, revoked); another answer also leaves us signed out
       if (isHTTPError(e) && e.response.status !== 401) console.warn('Session restore failed', e)
       applySession(null)
       // No answer at all (offline start): carry on with the profile kept on this device; sync gets a token later.
-      if (!isHTTPError(e)) user.value = await loadProfile().catch(() => null)
+      if (!isHTTPError(e)) user.value = await deviceMeta().then((meta) => meta.loadProfile()).catch(() => null)
     }
   }
 
@@ -63,7 +65,7 @@ export const useSessionStore = defineStore('session', () => {
   async function renew(userId: string): Promise<RenewOutcome> {
     try {
       const session = await auth.refresh()
-      if (session.user.id !== userId) return 'refused'
+      if (session?.user.id !== userId) return 'refused'
       applySession(session)
       return 'renewed'
     } catch (e) {
@@ -76,6 +78,7 @@ export const useSessionStore = defineStore('session', () => {
    * phone. With work not yet on the server it does nothing and answers that work, unless the user accepted the loss.
    */
   async function signOut(options: { discardUnsynced?: boolean } = {}): Promise<UnsyncedWork | null> {
+    const [{ unsyncedWorkOnDevice }, { wipeLocalData }] = await Promise.all([import('@/db/outbox'), import('@/db/wipe')])
     const work = await unsyncedWorkOnDevice()
     if (!options.discardUnsynced && work.changes + work.drafts + work.photos > 0) return work
     // Signs out locally even if the server cannot be reached.

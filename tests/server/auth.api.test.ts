@@ -204,6 +204,28 @@ describe('refresh and logout', () => {
     expect(both.every((res) => res.status === 200 || res.status === 401)).toBe(true)
   })
 
+  it('when no refresh cookie is sent (nobody signed in), answers 204 with no body and sets no cookie', async () => {
+    const res = await request(app).post('/api/auth/refresh')
+
+    expect(res.status).toBe(204)
+    expect(res.text).toBe('')
+    expect(res.headers['set-cookie']).toBeUndefined()
+  })
+
+  it('when the refresh cookie is present but unknown, answers 401 session-expired', async () => {
+    const res = await request(app).post('/api/auth/refresh').set('Cookie', 'plumbline_refresh=not-a-real-token')
+
+    expect(res.status).toBe(401)
+    expect(res.body.error.code).toBe('session-expired')
+  })
+
+  it('when the refresh cookie is present but empty, answers 401 session-expired', async () => {
+    const res = await request(app).post('/api/auth/refresh').set('Cookie', 'plumbline_refresh=')
+
+    expect(res.status).toBe(401)
+    expect(res.body.error.code).toBe('session-expired')
+  })
+
   it('logout revokes the refresh token and is audited', async () => {
     const user = await makeUser({ email: 'f@example.test' })
     const { cookie } = await signIn(app, 'f@example.test', PASSWORD)

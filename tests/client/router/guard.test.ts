@@ -43,6 +43,15 @@ describe('route access guard', () => {
     expect(router.currentRoute.value.query.redirect).toBe('/teams')
   })
 
+  it('when the browser holds no session at all (refresh resolves to none), sends to sign-in', async () => {
+    vi.mocked(auth.refresh).mockResolvedValue(null)
+    const router = makeRouter()
+
+    await router.push('/teams')
+
+    expect(router.currentRoute.value.name).toBe('sign-in')
+  })
+
   it('when a resident opens accounts, sends to not-allowed', async () => {
     vi.mocked(auth.refresh).mockResolvedValue({ token: 't', user: makeUser({ roles: ['resident'] }) })
     const router = makeRouter()

@@ -4,7 +4,7 @@ import { createPinia, setActivePinia } from 'pinia'
 import { HTTPError, type NormalizedOptions } from 'ky'
 import { db } from '@/db'
 import { saveDraft } from '@/db/drafts'
-import { saveProfile } from '@/db/meta'
+import { loadProfile, saveProfile } from '@/db/meta'
 import { useSessionStore } from '@/stores/session'
 import * as auth from '@/api/auth'
 import { makeExam } from '../components/exam/make-exam'
@@ -115,5 +115,39 @@ describe('signing out on a shared phone', () => {
     await session.restore()
 
     expect(session.user).toBeNull()
+  })
+
+  it('opening the app when this browser holds no session (the server answers 204) signs out without a warning', async () => {
+    await saveProfile(makeUser({ id: 'u-1' }))
+    vi.mocked(auth.refresh).mockResolvedValue(null)
+    const warn = vi.spyOn(console, 'warn')
+    const session = useSessionStore()
+
+    await session.restore()
+
+    expect(session.user).toBeNull()
+    expect(session.restored).toBe(true)
+    expect(warn).not.toHaveBeenCalled()
+    warn.mockRestore()
+  })
+
+  it('a restored session keeps the profile on the device, for the next offline start', async () => {
+    vi.mocked(auth.refresh).mockResolvedValue({ token: 't', user: makeUser({ id: 'u-1', displayName: 'Rowan Reed' }) })
+    const session = useSessionStore()
+
+    await session.restore()
+
+    await vi.waitFor(async () => expect(await loadProfile()).toMatchObject({ id: 'u-1', displayName: 'Rowan Reed' }))
+    expect(session.token).toBe('t')
+  })
+
+  it('renewing the token when the browser no longer holds a session answers refused', async () => {
+    vi.mocked(auth.refresh).mockResolvedValue(null)
+    const session = signedIn()
+
+    const outcome = await session.renew('u-1')
+
+    expect(outcome).toBe('refused')
+    expect(session.token).toBe('token')
   })
 })
