@@ -7,8 +7,6 @@ import type { Sequelize } from 'sequelize'
 export interface QueryDialect {
   /** A stored date-time column or a bound ISO 8601 parameter as milliseconds since 1970 (a number). */
   epochMs(expr: string): string
-  /** The values of an expression over the group as one JSON array text: one row reads far faster than many. */
-  jsonArray(expr: string): string
   /** Tells the planner which index answers a join, where the database takes such a hint; empty otherwise. */
   indexHint(index: string): string
 }
@@ -16,7 +14,6 @@ export interface QueryDialect {
 // SQLite stores date-times as text: julianday reads both its own format and ISO 8601, to the millisecond.
 const sqliteQueries: QueryDialect = {
   epochMs: (expr) => `round((julianday(${expr}) - 2440587.5) * 86400000)`,
-  jsonArray: (expr) => `json_group_array(${expr})`,
   indexHint: (index) => `INDEXED BY "${index.replaceAll('"', '""')}"`,
 }
 

@@ -1,5 +1,5 @@
 import { QueryTypes } from 'sequelize'
-import { accuracyFigures, boundOfBand, insideBand, type AccuracyPair, type StoredBand } from '#shared/domain/accuracy'
+import { accuracyFromSums, boundOfBand, insideBand, type AccuracySums, type StoredBand } from '#shared/domain/accuracy'
 import { CAUTION_TEXT } from '#shared/domain/interpretation'
 import { ACCURACY_POINTS_MAX, type AccuracyPoint, type AccuracyQuery, type AccuracySummary } from '#shared/schemas/reference'
 import type { User } from '#shared/schemas/user'
@@ -53,16 +53,36 @@ function filterOf(user: User, query: AccuracyQuery, windowMinutes: number): Filt
 const select = <T extends object>(sql: string, filter: Filter) =>
   ReferenceModel.sequelize!.query<T>(sql, { type: QueryTypes.SELECT, replacements: filter.replacements })
 
-/** Every pair, as four JSON arrays in one row: the driver builds one row far faster than 100,000. */
-async function allPairs(filter: Filter): Promise<AccuracyPair[]> {
-  const { jsonArray } = queryDialect(ReferenceModel.sequelize!)
-  const arrays = `${jsonArray('e."cvpCmH2O"')} AS "estimates", ${jsonArray('r."valueCmH2O"')} AS "references", ${jsonArray('e."bandLowCmH2O"')} AS "lows", ${jsonArray('e."bandHighCmH2O"')} AS "highs"`
-  const [row] = await select<Record<'estimates' | 'references' | 'lows' | 'highs', string>>(`SELECT ${arrays} ${filter.sql}`, filter)
-  if (!row) return []
-  const [estimates, references, lows, highs] = [row.estimates, row.references, row.lows, row.highs].map(
-    (text) => JSON.parse(text) as (number | null)[],
-  )
-  return estimates!.map((estimate, i) => ({ estimateCmH2O: estimate!, referenceCmH2O: references![i]!, band: [lows![i]!, highs![i]!] }))
+interface SumsRow {
+  total: number
+  inside: number | null
+  n: number | null
+  sum: number | null
+  sumOfSquares: number | null
+}
+
+/**
+ * The figures' sums over every pair in one aggregate row (accuracyFromSums in shared/domain/accuracy.ts does the rest):
+ * the coverage rule is insideBand's, ends included and a bound's open side unlimited; differences of point estimates only.
+ */
+async function pairSums(filter: Filter): Promise<AccuracySums> {
+  const point = `e."bandLowCmH2O" IS NOT NULL AND e."bandHighCmH2O" IS NOT NULL`
+  const inside = `(e."bandLowCmH2O" IS NULL OR r."valueCmH2O" >= e."bandLowCmH2O") AND (e."bandHighCmH2O" IS NULL OR r."valueCmH2O" <= e."bandHighCmH2O")`
+  const d = `(e."cvpCmH2O" - r."valueCmH2O")`
+  const sums = [
+    `COUNT(*) AS "total"`,
+    `SUM(CASE WHEN ${inside} THEN 1 ELSE 0 END) AS "inside"`,
+    `SUM(CASE WHEN ${point} THEN 1 ELSE 0 END) AS "n"`,
+    `SUM(CASE WHEN ${point} THEN ${d} END) AS "sum"`,
+    `SUM(CASE WHEN ${point} THEN ${d} * ${d} END) AS "sumOfSquares"`,
+  ]
+  const [row] = await select<SumsRow>(`SELECT ${sums.join(', ')} ${filter.sql}`, filter)
+  const n = Number(row?.n ?? 0)
+  return {
+    differences: { n, sum: Number(row?.sum ?? 0), sumOfSquares: Number(row?.sumOfSquares ?? 0) },
+    inside: Number(row?.inside ?? 0),
+    total: Number(row?.total ?? 0),
+  }
 }
 
 interface PointRow {
@@ -91,6 +111,6 @@ async function recentPoints(filter: Filter): Promise<AccuracyPoint[]> {
 /** Accuracy of the estimate against measured pressures in the reader's scope (educators: all; attendings: their teams). */
 export async function accuracySummary(user: User, query: AccuracyQuery): Promise<AccuracySummary> {
   const filter = filterOf(user, query, await referenceWindow())
-  const [pairs, points] = await Promise.all([allPairs(filter), recentPoints(filter)])
-  return { ...accuracyFigures(pairs), points, caution: CAUTION_TEXT }
+  const [sums, points] = await Promise.all([pairSums(filter), recentPoints(filter)])
+  return { ...accuracyFromSums(sums), points, caution: CAUTION_TEXT }
 }

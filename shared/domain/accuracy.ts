@@ -1,6 +1,6 @@
 import type { Bound } from '../schemas/exam.ts'
 import type { AccuracySummary } from '../schemas/reference.ts'
-import { blandAltman } from '../stats/bland-altman.ts'
+import { blandAltmanFromSums, differenceSums, type DifferenceSums } from '../stats/bland-altman-sums.ts'
 import { wilsonInterval } from '../stats/wilson.ts'
 
 /** A stored 95% band in cmH₂O: both ends for a point estimate, one end open (null) for a bound. */
@@ -29,25 +29,43 @@ export function insideBand(band: StoredBand, referenceCmH2O: number): boolean {
 
 type Figures = Omit<AccuracySummary, 'points' | 'caution'>
 
-/**
- * Bland–Altman of estimate − reference over the point estimates (a bound has no difference to take; Bland & Altman
- * 1986, Lancet i:307–310), and band coverage over every pair with its Wilson 95% interval (Newcombe 1998, Stat Med
- * 17:857–872, method 3). `n` counts the point pairs, `coverage.n` every pair.
- */
-export function accuracyFigures(pairs: readonly AccuracyPair[]): Figures {
+/** What the accuracy figures need of the pairs, as sums a database aggregate can return. */
+export interface AccuracySums {
+  /** Σ and Σ² of estimate − reference over the point estimates (a bound has no difference to take). */
+  differences: DifferenceSums
+  /** Pairs whose measured value lies inside the stored band, and all pairs. */
+  inside: number
+  total: number
+}
+
+/** The sums of a list of pairs, as the database's aggregate adds them up. */
+export function accuracySums(pairs: readonly AccuracyPair[]): AccuracySums {
   const points = pairs.filter((p) => boundOfBand(p.band) === 'point')
-  const ba = blandAltman(
+  const differences = differenceSums(
     points.map((p) => p.estimateCmH2O),
     points.map((p) => p.referenceCmH2O),
   )
-  let inside = 0
-  for (const p of pairs) if (insideBand(p.band, p.referenceCmH2O)) inside++
-  const wilson = wilsonInterval(inside, pairs.length)
+  return { differences, inside: pairs.filter((p) => insideBand(p.band, p.referenceCmH2O)).length, total: pairs.length }
+}
+
+/**
+ * Bland–Altman of estimate − reference over the point estimates (Bland & Altman 1986, Lancet i:307–310), and band
+ * coverage over every pair with its Wilson 95% interval (Newcombe 1998, Stat Med 17:857–872, method 3). `n` counts the
+ * point pairs, `coverage.n` every pair.
+ */
+export function accuracyFromSums({ differences, inside, total }: AccuracySums): Figures {
+  const ba = blandAltmanFromSums(differences)
+  const wilson = wilsonInterval(inside, total)
   return {
-    n: points.length,
+    n: differences.n,
     bias: ba.ok ? ba.bias : null,
     sd: ba.ok ? ba.sd : null,
     loa: ba.ok ? ba.loa : null,
-    coverage: { inside, n: pairs.length, share: wilson.ok ? wilson.share : null, ci: wilson.ok ? wilson.ci : null },
+    coverage: { inside, n: total, share: wilson.ok ? wilson.share : null, ci: wilson.ok ? wilson.ci : null },
   }
+}
+
+/** The accuracy figures of a list of pairs. */
+export function accuracyFigures(pairs: readonly AccuracyPair[]): Figures {
+  return accuracyFromSums(accuracySums(pairs))
 }
