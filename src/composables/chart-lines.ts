@@ -12,3 +12,10 @@ export function straightLine(label: string, from: { x: number; y: number }, to: 
     pointStyle: 'line' as const,
   }
 }
+
+/** The line of identity (y = x) across the range of every x and y shown, for a scatter of two measures of one thing. */
+export function identityLine(label: string, points: readonly { x: number; y: number }[], color: string) {
+  const values = points.flatMap((p) => [p.x, p.y])
+  const [low, high] = values.length ? [Math.min(...values), Math.max(...values)] : [0, 1]
+  return straightLine(label, { x: low, y: low }, { x: high, y: high }, color)
+}
