@@ -1,3 +1,4 @@
+/// <reference path="./jstat.d.ts" />
 import jStat from 'jstat'
 
 /** The p-quantile of Student's t with `df` degrees of freedom (df may be fractional). */

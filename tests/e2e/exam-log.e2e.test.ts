@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto'
 import type { Browser, BrowserContext } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_PASSWORD, launchChromium, signInAs, startDemoServer } from './browser.ts'
-import { WORKED_EXAMPLE_FINDINGS } from '../shared/worked-example.ts'
+import { WORKED_EXAMPLE_FINDINGS } from '../../tests/shared/worked-example.ts'
 
 const RESIDENT = 'resident@saltmarsh.test'
 // Sign-in hashes a password and the first visit loads lazy chunks: allow more than expect.poll's 1 s.

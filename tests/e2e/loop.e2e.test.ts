@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto'
 import type { Page } from 'playwright-core'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_PASSWORD, signInAs, useDemoBrowser } from './browser.ts'
-import { WORKED_EXAMPLE_FINDINGS } from '../shared/worked-example.ts'
+import { WORKED_EXAMPLE_FINDINGS } from '../../tests/shared/worked-example.ts'
 
 const demo = useDemoBrowser()
 const RESIDENT = 'resident@saltmarsh.test'

@@ -1,1 +1,1 @@
-export { makeSignature } from '../../shared/signature'
+export { makeSignature } from '../../../tests/shared/signature'

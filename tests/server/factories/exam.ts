@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import request from 'supertest'
 import type { Exam, ExamInputRaw } from '#shared/schemas/exam'
-import { WORKED_EXAMPLE_FINDINGS } from '../../shared/worked-example.ts'
+import { WORKED_EXAMPLE_FINDINGS } from '../../../tests/shared/worked-example.ts'
 
 type App = Parameters<typeof request>[0]
 

@@ -2,7 +2,7 @@ import type { Server } from 'node:http'
 import request from 'supertest'
 import { makeExamInput, recordExam, recordSubmittedExam } from '../factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp, makeUser, PASSWORD } from '../helpers.ts'
-import { WORKED_EXAMPLE_FINDINGS } from '../../shared/worked-example.ts'
+import { WORKED_EXAMPLE_FINDINGS } from '../../../tests/shared/worked-example.ts'
 
 export const ROLES = ['anonymous', 'bad-token', 'resident', 'attending', 'educator', 'admin'] as const
 export type FuzzRole = (typeof ROLES)[number]

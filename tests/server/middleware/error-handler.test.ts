@@ -1,7 +1,7 @@
 import { gzipSync } from 'node:zlib'
 import request from 'supertest'
 import { beforeEach, describe, expect, it } from 'vitest'
-import { WORKED_EXAMPLE_FINDINGS } from '../../shared/worked-example.ts'
+import { WORKED_EXAMPLE_FINDINGS } from '../../../tests/shared/worked-example.ts'
 import { makeCaller, makeTestApp } from '../helpers.ts'
 
 let app: Awaited<ReturnType<typeof makeTestApp>>['app']

@@ -1,6 +1,6 @@
 import type { Exam } from '#shared/schemas/exam'
 
-export { makeApiExam as makeExam } from '../../../shared/api-exam'
+export { makeApiExam as makeExam } from '../../../../tests/shared/api-exam'
 
 /** The list envelope of GET /api/exams around the given rows. */
 export function makeExamList(exams: Exam[], total = exams.length) {
