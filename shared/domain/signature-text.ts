@@ -1,4 +1,5 @@
 import type { Signature, SignatureMeaning } from '../schemas/signature.ts'
+import { formatDateTimeZone } from './date-time.ts'
 
 /** What each meaning attests, as every manifestation words it (21 CFR 11.50(a)(3)). */
 export const MEANING_LABEL: Record<SignatureMeaning, string> = {
@@ -6,25 +7,9 @@ export const MEANING_LABEL: Record<SignatureMeaning, string> = {
   'reviewed-re-examined': 'reviewed after examining the patient in person',
 }
 
-const UTC_NAMES = new Set(['UTC', 'Etc/UTC', 'Etc/GMT', 'GMT'])
-
-function zoneOrUtc(timeZone: string): string {
-  try {
-    new Intl.DateTimeFormat('en-GB', { timeZone })
-    return timeZone
-  } catch {
-    return 'UTC'
-  }
-}
-
 /** A server time in the zone it was stamped in, e.g. "14 Mar 2026, 09:30 GMT (Europe/London)". */
 export function timeInZone(iso: string, timeZone: string): string {
-  const zone = zoneOrUtc(timeZone)
-  const text = new Intl.DateTimeFormat('en-GB', {
-    ...{ day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' },
-    ...{ hourCycle: 'h23', timeZoneName: 'short', timeZone: zone },
-  } as const).format(new Date(iso))
-  return UTC_NAMES.has(zone) ? text : `${text} (${zone})`
+  return formatDateTimeZone(iso, { locale: 'en-GB', timeZone })
 }
 
 /** The signature's manifestation on one line: printed name, date and time with zone, meaning, and whether it still holds. */

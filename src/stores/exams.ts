@@ -1,7 +1,7 @@
 import { defineStore } from 'pinia'
 import { computed, ref } from 'vue'
 import { ExamListQuerySchema, type Exam, type ExamListQuery } from '#shared/schemas/exam'
-import { isHTTPError } from 'ky'
+import { serverUnreachable } from '@/api/client'
 import { fetchExam, fetchExams, submitExam, updateExam } from '@/api/exams'
 import { listLocalExams, unsentExams, type UnsentState } from '@/db/local-exam-list'
 import { loadLocalExam } from '@/db/local-exams'
@@ -14,13 +14,6 @@ export type ExamPaging = Pick<ExamListQuery, 'page' | 'pageSize' | 'sort' | 'ord
 const NO_FILTERS: ExamFilters = { status: undefined, patientCode: undefined, from: undefined, to: undefined }
 
 // A proxy or gateway answering for a server it cannot reach: as good as no network.
-const UNREACHABLE_STATUSES = new Set([502, 503, 504])
-
-/** Whether to fall back on the copies kept on this device: the server was not reached, rather than refusing. */
-function unreachable(e: unknown): boolean {
-  return !isHTTPError(e) || UNREACHABLE_STATUSES.has(e.response.status)
-}
-
 /** The device's outbox must never break the log: without it, rows simply carry no "not yet sent" mark. */
 async function unsentOrNone(userId: string | undefined): Promise<Record<string, UnsentState>> {
   return userId ? unsentExams(userId).catch(() => ({})) : {}
@@ -59,7 +52,7 @@ export const useExamsStore = defineStore('exams', () => {
     } catch (e) {
       const userId = useSessionStore().user?.id
       // Only a missing network falls back; a refusal from the server is an answer to show.
-      if (!unreachable(e) || !userId) throw e
+      if (!serverUnreachable(e) || !userId) throw e
       const list = { ...(await listLocalExams(userId, q)), totalCapped: false, nextCursor: null }
       return { list, local: true, syncedAt: await loadLastSync(userId) }
     }
@@ -113,7 +106,7 @@ export const useExamsStore = defineStore('exams', () => {
       current.value = await fetchExam(id)
     } catch (e) {
       const userId = useSessionStore().user?.id
-      const local = unreachable(e) && userId ? await loadLocalExam(id, userId) : undefined
+      const local = serverUnreachable(e) && userId ? await loadLocalExam(id, userId) : undefined
       if (!local) throw e
       current.value = local
     }

@@ -1,5 +1,7 @@
 import { VEIN_LABEL, VENOUS_SIGN_LABEL, oneDp } from '#shared/domain/exam-note'
-import type { Abdominojugular, ColumnTop, NotAssessableReason, VenousSignState } from '#shared/schemas/exam'
+import type { Abdominojugular, ColumnTop, Exam, NotAssessableReason, VenousSignState } from '#shared/schemas/exam'
+
+type Respiratory = Exam['respiratory']
 
 /** The column top as the findings show it. */
 export const COLUMN_TOP_WORDS: Record<ColumnTop, string> = {
@@ -10,7 +12,7 @@ export const COLUMN_TOP_WORDS: Record<ColumnTop, string> = {
 }
 
 /** The column's movement with breathing as the findings show it. */
-export const RESPIRATORY_WORDS: Record<string, string> = {
+export const RESPIRATORY_WORDS: Record<Respiratory, string> = {
   'falls-on-inspiration': 'Falls on inspiration',
   'rises-on-inspiration': 'Rises on inspiration (Kussmaul sign)',
   'no-change': 'No change with breathing',

@@ -1,5 +1,6 @@
-import { VEIN_LABEL, VENOUS_SIGN_LABEL, oneDp } from '#shared/domain/exam-note'
-import { VenousSignSchema, type Exam, type NotAssessableReason, type VenousSignState } from '#shared/schemas/exam'
+import { VENOUS_SIGN_LABEL, oneDp } from '#shared/domain/exam-note'
+import { VenousSignSchema, type Exam, type VenousSignState } from '#shared/schemas/exam'
+import { abdominojugularWords, capitalise, COLUMN_TOP_WORDS, NOT_ASSESSABLE_WORDS, RESPIRATORY_WORDS, veinWords } from '@/utils/exam-words'
 import { formatDateTime } from '@/utils/format'
 import { CONTEXT_LABELS } from './exam-format'
 
@@ -9,38 +10,13 @@ export interface FindingGroup {
   rows: [label: string, value: string][]
 }
 
-const COLUMN_TOP: Record<Exam['columnTop'], string> = {
-  seen: 'Seen',
-  'above-neck': 'Above the visible neck, even upright',
-  'not-filled': 'Not filled, even lying flat',
-  'not-assessable': 'Could not be assessed',
-}
-
-const RESPIRATORY: Record<Exam['respiratory'], string> = {
-  'falls-on-inspiration': 'Falls on inspiration',
-  'rises-on-inspiration': 'Rises on inspiration (Kussmaul sign)',
-  'no-change': 'No change with breathing',
-  'not-assessed': 'Not assessed',
-}
-
-const REASONS: Record<NotAssessableReason, string> = {
-  habitus: 'Body habitus',
-  'lines-or-dressings': 'Lines or dressings over the neck',
-  'cannot-position': 'Patient could not be positioned',
-  ventilated: 'Mechanical ventilation',
-  agitated: 'Patient agitated or moving',
-  other: 'Other',
-}
-
-const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1).replace(/-/g, ' ')
-
 function positionRows(exam: Exam): FindingGroup['rows'] {
   return [
     ['Patient code', exam.patientCode],
     ['Examined', `${formatDateTime(exam.examinedAt)} by ${exam.examinerName}`],
     ['Team', exam.teamName],
     ['Inclination', `${exam.inclinationDeg}° from horizontal (${exam.inclinationSource === 'sensor' ? 'measured by phone' : 'entered'})`],
-    ['Vein', capitalise(VEIN_LABEL[exam.vein])],
+    ['Vein', veinWords(exam.vein)],
     ['Circumstances', exam.context.map((flag) => CONTEXT_LABELS[flag]).join(', ') || 'None recorded'],
   ]
 }
@@ -63,10 +39,10 @@ function pulsationRows(exam: Exam): FindingGroup['rows'] {
 
 function heightRows(exam: Exam): FindingGroup['rows'] {
   const h = exam.estimate.heightCm
-  const rows: FindingGroup['rows'] = [['Column top', COLUMN_TOP[exam.columnTop]]]
+  const rows: FindingGroup['rows'] = [['Column top', COLUMN_TOP_WORDS[exam.columnTop]]]
   if (exam.columnTop === 'not-assessable' && exam.notAssessableReason) {
     const text = exam.notAssessableReason === 'other' && exam.notAssessableText ? `: ${exam.notAssessableText}` : ''
-    rows.push(['Reason', `${REASONS[exam.notAssessableReason]}${text}`])
+    rows.push(['Reason', `${NOT_ASSESSABLE_WORDS[exam.notAssessableReason]}${text}`])
   }
   if (exam.columnTop !== 'seen' && exam.columnTop !== 'above-neck') return rows
   rows.push(['Method', exam.heightMethod === 'vertical' ? 'Vertical rule at the sternal angle' : 'Along the neck'])
@@ -76,20 +52,13 @@ function heightRows(exam: Exam): FindingGroup['rows'] {
   return rows
 }
 
-function abdominojugularText(aj: Exam['abdominojugular']): string {
-  if (!aj.done) return 'Not done'
-  const rise = aj.riseCm === undefined ? 'rise not recorded' : `rise ${oneDp(aj.riseCm)} cm`
-  const fall = aj.fallOnReleaseCm === undefined ? '' : `, fall on release ${oneDp(aj.fallOnReleaseCm)} cm`
-  return `Done, ${rise}${aj.sustained ? ', sustained' : ', not sustained'}${fall}`
-}
-
 function waveformRows(exam: Exam): FindingGroup['rows'] {
   return [
     ['a wave', capitalise(exam.waveform.aWave)],
     ['v wave', capitalise(exam.waveform.vWave)],
     ['y descent', capitalise(exam.waveform.yDescent)],
-    ['Respiration', RESPIRATORY[exam.respiratory]],
-    ['Abdominojugular test', abdominojugularText(exam.abdominojugular)],
+    ['Respiration', RESPIRATORY_WORDS[exam.respiratory]],
+    ['Abdominojugular test', abdominojugularWords(exam.abdominojugular)],
   ]
 }
 
