@@ -10,7 +10,7 @@ import { countersignExam } from './countersign.service.ts'
 import { examHistory, examSignatures } from './exam-records.service.ts'
 import { createNotifier, type Notifier } from './notifications.ts'
 import { amendExam, returnExam } from './review.service.ts'
-import { signoffCount, signoffQueue } from './signoff-queue.service.ts'
+import { signoffCount, signoffQueue, signoffResidents } from './signoff-queue.service.ts'
 
 export interface SupervisionRouterOptions extends MailDeps {
   secret: string
@@ -53,5 +53,6 @@ export function supervisionRouter(options: SupervisionRouterOptions): Router {
     res.json(await signoffQueue(user(res), SignoffQueueQuerySchema.parse(req.query))),
   )
   router.get('/signoff-queue/count', attendings, async (_req, res) => res.json(await signoffCount(user(res))))
+  router.get('/signoff-queue/residents', attendings, async (_req, res) => res.json(await signoffResidents(user(res))))
   return router
 }

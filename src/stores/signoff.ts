@@ -2,13 +2,20 @@ import { defineStore } from 'pinia'
 import { ref } from 'vue'
 import type { Exam } from '#shared/schemas/exam'
 import type { CountersignInput, ReturnInput } from '#shared/schemas/signature'
-import type { SignoffQueueItem } from '#shared/schemas/signoff-queue'
+import type { SignoffQueueItem, SignoffQueueOrder, SignoffQueueResident } from '#shared/schemas/signoff-queue'
 import * as supervision from '@/api/supervision'
 import { useExamsStore } from './exams'
 
 export const useSignoffStore = defineStore('signoff', () => {
-  /** The page of the attending's queue on screen, longest waiting first. */
+  /** The page of the attending's queue on screen, in `order`. */
   const items = ref<SignoffQueueItem[]>([])
+  const order = ref<SignoffQueueOrder>('oldest')
+  /** Part of a resident's name or a patient code; empty for the whole queue. */
+  const search = ref('')
+  /** The resident whose exams alone are shown; null for everyone. */
+  const residentId = ref<string | null>(null)
+  /** Everyone with exams waiting, with how many, for the filter chips. */
+  const residents = ref<SignoffQueueResident[]>([])
   const total = ref(0)
   const page = ref(1)
   const pageSize = ref(25)
@@ -19,19 +26,26 @@ export const useSignoffStore = defineStore('signoff', () => {
   const returned = ref<Exam[]>([])
   const exams = useExamsStore()
 
-  /** Loads a page of the queue; its total also refreshes the badge. */
+  /** Loads a page of the queue in the order, search and resident chosen; an unfiltered total also refreshes the badge. */
   async function loadQueue(paging: { page?: number; pageSize?: number } = {}) {
     page.value = paging.page ?? page.value
     pageSize.value = paging.pageSize ?? pageSize.value
     loading.value = true
     try {
-      const queue = await supervision.fetchSignoffQueue({ page: page.value, pageSize: pageSize.value })
+      const q = search.value.trim()
+      const filters = { order: order.value, q: q || undefined, residentId: residentId.value ?? undefined }
+      const queue = await supervision.fetchSignoffQueue({ page: page.value, pageSize: pageSize.value, ...filters })
       items.value = queue.items
       total.value = queue.total
-      count.value = queue.total
+      if (!filters.q && !filters.residentId && !queue.totalCapped) count.value = queue.total
     } finally {
       loading.value = false
     }
+  }
+
+  /** Loads how many exams each resident has waiting. */
+  async function loadResidents() {
+    residents.value = await supervision.fetchSignoffResidents()
   }
 
   /** Asks the server how many exams wait; never throws, since the badge is a hint and must not block anything. */
@@ -47,7 +61,12 @@ export const useSignoffStore = defineStore('signoff', () => {
   function settle(exam: Exam) {
     const before = items.value.length
     items.value = items.value.filter((item) => item.exam.id !== exam.id)
-    if (items.value.length < before) total.value = Math.max(0, total.value - 1)
+    if (items.value.length < before) {
+      total.value = Math.max(0, total.value - 1)
+      residents.value = residents.value
+        .map((r) => (r.residentId === exam.examinerId ? { ...r, count: r.count - 1 } : r))
+        .filter((r) => r.count > 0)
+    }
     if (exams.current?.id === exam.id) exams.current = exam
     returned.value = returned.value.filter((row) => row.id !== exam.id || exam.status === 'returned')
     return exam
@@ -78,5 +97,24 @@ export const useSignoffStore = defineStore('signoff', () => {
     returned.value = await supervision.fetchReturnedExams(examinerId)
   }
 
-  return { items, total, page, pageSize, loading, count, returned, loadQueue, refreshCount, countersign, returnWithComment, amend, loadReturned }
+  return {
+    items,
+    order,
+    search,
+    residentId,
+    residents,
+    total,
+    page,
+    pageSize,
+    loading,
+    count,
+    returned,
+    loadQueue,
+    loadResidents,
+    refreshCount,
+    countersign,
+    returnWithComment,
+    amend,
+    loadReturned,
+  }
 })

@@ -17,7 +17,8 @@ export function createFormErrors(fields: Record<string, string>, input: { patien
   for (const [key, message] of Object.entries(fields)) {
     const [field, index] = key.split('.') as [string, string | undefined]
     if (field !== 'name' && field !== 'patientCodes' && field !== 'examinerIds') continue
-    const item = index === undefined ? undefined : field === 'patientCodes' ? input.patientCodes[Number(index)] : input.examinerNames[Number(index)]
+    const item =
+      index === undefined ? undefined : field === 'patientCodes' ? input.patientCodes[Number(index)] : input.examinerNames[Number(index)]
     errors[field].push(item ? `${item}: ${message}` : message)
   }
   return errors

@@ -27,7 +27,14 @@ describe('sign-off store', () => {
 
   it('loading the queue also updates the count', async () => {
     const item = { exam: makeExam({ status: 'submitted' }), waitingSeconds: 60 }
-    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({ items: [item], total: 7, page: 1, pageSize: 25, totalCapped: false, nextCursor: null })
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({
+      items: [item],
+      total: 7,
+      page: 1,
+      pageSize: 25,
+      totalCapped: false,
+      nextCursor: null,
+    })
     const store = useSignoffStore()
 
     await store.loadQueue()
@@ -38,7 +45,14 @@ describe('sign-off store', () => {
   it('a countersigned exam leaves the queue and replaces the exam on screen', async () => {
     const exam = makeExam({ status: 'submitted' })
     const signed = { ...exam, status: 'countersigned' as const, signatures: [makeSignature({ examId: exam.id })] }
-    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({ items: [{ exam, waitingSeconds: 60 }], total: 1, page: 1, pageSize: 25, totalCapped: false, nextCursor: null })
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({
+      items: [{ exam, waitingSeconds: 60 }],
+      total: 1,
+      page: 1,
+      pageSize: 25,
+      totalCapped: false,
+      nextCursor: null,
+    })
     vi.mocked(supervision.countersignExam).mockResolvedValue(signed)
     vi.mocked(supervision.fetchSignoffCount).mockResolvedValue(0)
     const store = useSignoffStore()
@@ -54,7 +68,14 @@ describe('sign-off store', () => {
 
   it('a failed countersignature changes nothing', async () => {
     const exam = makeExam({ status: 'submitted' })
-    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({ items: [{ exam, waitingSeconds: 60 }], total: 1, page: 1, pageSize: 25, totalCapped: false, nextCursor: null })
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({
+      items: [{ exam, waitingSeconds: 60 }],
+      total: 1,
+      page: 1,
+      pageSize: 25,
+      totalCapped: false,
+      nextCursor: null,
+    })
     vi.mocked(supervision.countersignExam).mockRejectedValue(new Error('401'))
     const store = useSignoffStore()
     await store.loadQueue()
@@ -76,5 +97,42 @@ describe('sign-off store', () => {
     await store.amend(returned.id, 1)
 
     expect(store.returned).toEqual([])
+  })
+
+  it('loads the queue in the order, search and resident chosen, and leaves the badge alone when filtered', async () => {
+    vi.mocked(supervision.fetchSignoffCount).mockResolvedValue(9)
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue({
+      items: [],
+      total: 2,
+      page: 1,
+      pageSize: 25,
+      totalCapped: false,
+      nextCursor: null,
+    })
+    const store = useSignoffStore()
+    await store.refreshCount()
+    Object.assign(store, { order: 'newest', search: ' SM-01 ', residentId: 'res-1' })
+
+    await store.loadQueue()
+
+    expect(vi.mocked(supervision.fetchSignoffQueue).mock.lastCall![0]).toMatchObject({ order: 'newest', q: 'SM-01', residentId: 'res-1' })
+    expect(store.total).toBe(2)
+    expect(store.count).toBe(9)
+  })
+
+  it('a settled exam lowers its resident’s count, and a resident with none left drops out', async () => {
+    const exam = makeExam({ status: 'submitted', examinerId: 'res-1' })
+    vi.mocked(supervision.fetchSignoffResidents).mockResolvedValue([
+      { residentId: 'res-1', name: 'Dr Ayo Okafor', count: 1 },
+      { residentId: 'res-2', name: 'Dr Sam Whitcombe', count: 2 },
+    ])
+    vi.mocked(supervision.returnExam).mockResolvedValue({ ...exam, status: 'returned' })
+    const store = useSignoffStore()
+    store.items = [{ exam, waitingSeconds: 60 }]
+    await store.loadResidents()
+
+    await store.returnWithComment(exam.id, { comment: 'Redo at 45°' })
+
+    expect(store.residents).toEqual([{ residentId: 'res-2', name: 'Dr Sam Whitcombe', count: 2 }])
   })
 })

@@ -33,6 +33,7 @@ describe('SignoffQueueView', () => {
   beforeEach(() => {
     setActivePinia(createPinia())
     vi.mocked(supervision.fetchSignoffQueue).mockReset()
+    vi.mocked(supervision.fetchSignoffResidents).mockReset().mockResolvedValue([])
   })
 
   afterEach(() => {
@@ -91,5 +92,52 @@ describe('SignoffQueueView', () => {
     const { wrapper } = await mountQueue()
 
     expect(wrapper.find('[data-testid="signoff-empty"]').text()).toContain('Nothing is waiting')
+  })
+
+  it('when “Newest first” is chosen, asks the server for the newest first, from the first page', async () => {
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue(queueOf([]))
+    const { wrapper } = await mountQueue()
+
+    const newest = wrapper.findAll('[data-testid="signoff-order"] button').find((b) => b.text() === 'Newest first')!
+    await newest.trigger('click')
+    await flushPromises()
+
+    expect(vi.mocked(supervision.fetchSignoffQueue).mock.lastCall![0]).toMatchObject({ order: 'newest', page: 1 })
+  })
+
+  it('when a search is submitted, asks for the exams matching it and says so when none does', async () => {
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue(queueOf([]))
+    const { wrapper } = await mountQueue()
+
+    await wrapper.find('[data-testid="signoff-search"] input').setValue('  okafor ')
+    await wrapper.find('form[role="search"]').trigger('submit')
+    await flushPromises()
+
+    expect(vi.mocked(supervision.fetchSignoffQueue).mock.lastCall![0]).toMatchObject({ q: 'okafor' })
+    expect(wrapper.find('[data-testid="signoff-empty"]').text()).toContain('No waiting exam matches')
+  })
+
+  it('shows each resident with how many exams wait, and choosing one lists only theirs', async () => {
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue(queueOf([]))
+    vi.mocked(supervision.fetchSignoffResidents).mockResolvedValue([
+      { residentId: 'res-1', name: 'Dr Ayo Okafor', count: 3 },
+      { residentId: 'res-2', name: 'Dr Sam Whitcombe', count: 1 },
+    ])
+    const { wrapper } = await mountQueue()
+
+    const chips = wrapper.findAll('[data-testid="signoff-resident"]')
+    expect(chips.map((c) => c.text().replace(/\s+/g, ' '))).toEqual(['Dr Ayo Okafor 3', 'Dr Sam Whitcombe 1'])
+    await chips[0]!.trigger('click')
+    await flushPromises()
+
+    expect(vi.mocked(supervision.fetchSignoffQueue).mock.lastCall![0]).toMatchObject({ residentId: 'res-1', page: 1 })
+  })
+
+  it('carries the caution beside the list', async () => {
+    vi.mocked(supervision.fetchSignoffQueue).mockResolvedValue(queueOf([]))
+
+    const { wrapper } = await mountQueue()
+
+    expect(wrapper.find('[data-testid="caution-note"]').text()).toContain('wide error band')
   })
 })

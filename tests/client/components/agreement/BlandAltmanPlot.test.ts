@@ -46,9 +46,10 @@ describe('BlandAltmanPlot', () => {
       { x: 1.5, y: -1 },
     ])
     expect(bias!.label).toBe('Bias (−0.9 cm)')
+    // Across the padded x-axis: means 1.5 to 4.75, a tenth of the span 3.25 beyond each.
     expect(bias!.data).toEqual([
-      { x: 1.5, y: -0.875 },
-      { x: 4.75, y: -0.875 },
+      { x: expect.closeTo(1.175, 10), y: -0.875 },
+      { x: expect.closeTo(5.075, 10), y: -0.875 },
     ])
     expect(upper!.label).toBe('Upper limit of agreement (+1.1 cm)')
     expect(lower!.label).toBe('Lower limit of agreement (−2.9 cm)')
@@ -78,5 +79,20 @@ describe('BlandAltmanPlot', () => {
     const wrapper = mountPlot({ pairs: [makePair(3, 4), makePair(2, 4)], blandAltman: makeSummary().blandAltman, n: 5000 })
 
     expect(wrapper.find('figcaption').text()).toContain('The plot shows the newest 2 of 5000 pairs')
+  })
+
+  it('leaves room above and below the points and the limits, and draws the limits in a colour apart from the bias', () => {
+    const pairs = HAND_PAIRS.map(([r, a]) => makePair(r, a))
+
+    const wrapper = mountPlot({ pairs, blandAltman: makeSummary().blandAltman, n: 4 })
+
+    const scatter = wrapper.findComponent(Scatter)
+    const y = (scatter.props('options') as { scales: { y: { suggestedMin: number; suggestedMax: number } } }).scales.y
+    const [, upper, bias, lower] = (scatter.props('data') as ChartData<'scatter'>).datasets
+    // Outermost: the lower limit −2.895 and the upper +1.145 (differences −2 to +0.5 lie between).
+    expect(y.suggestedMin).toBeLessThan(-2.895)
+    expect(y.suggestedMax).toBeGreaterThan(1.145)
+    expect(upper!.borderColor).toBe(lower!.borderColor)
+    expect(upper!.borderColor).not.toBe(bias!.borderColor)
   })
 })

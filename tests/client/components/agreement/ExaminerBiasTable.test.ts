@@ -4,7 +4,8 @@ import { createVuetify } from 'vuetify'
 import ExaminerBiasTable from '@/components/agreement/ExaminerBiasTable.vue'
 import { makeSummary } from './make-agreement'
 
-const mountTable = (examiners = makeSummary().byExaminer) => mount(ExaminerBiasTable, { props: { examiners }, global: { plugins: [createVuetify()] } })
+const mountTable = (examiners = makeSummary().byExaminer) =>
+  mount(ExaminerBiasTable, { props: { examiners }, global: { plugins: [createVuetify()] } })
 
 describe('ExaminerBiasTable', () => {
   it('lists each resident with n, bias and limits, marking a negative bias as reading lower', () => {

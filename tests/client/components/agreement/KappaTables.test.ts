@@ -4,7 +4,8 @@ import { createVuetify } from 'vuetify'
 import KappaTables from '@/components/agreement/KappaTables.vue'
 import { UNAVAILABLE } from './make-agreement'
 
-const mountKappa = (props: InstanceType<typeof KappaTables>['$props']) => mount(KappaTables, { props, global: { plugins: [createVuetify()] } })
+const mountKappa = (props: InstanceType<typeof KappaTables>['$props']) =>
+  mount(KappaTables, { props, global: { plugins: [createVuetify()] } })
 
 describe('KappaTables', () => {
   it('shows Cohen’s kappa for elevated and both weighted kappas for the category, with the Landis & Koch labels', () => {

@@ -67,7 +67,15 @@ export function makeSummary(overrides: Partial<AgreementSummary> = {}): Agreemen
     kappaCategory: { linear: 0.62, quadratic: 0.71, label: 'substantial' },
     byExaminer: [
       { examinerId: 'u-res', name: 'Dr Sam Whitcombe', role: 'resident', n: 4, bias, sd, loa: [bias - 1.96 * sd, bias + 1.96 * sd] },
-      { examinerId: 'u-att', name: 'Dr Tomas Lindqvist', role: 'attending', n: 4, bias: -bias, sd, loa: [-bias - 1.96 * sd, -bias + 1.96 * sd] },
+      {
+        examinerId: 'u-att',
+        name: 'Dr Tomas Lindqvist',
+        role: 'attending',
+        n: 4,
+        bias: -bias,
+        sd,
+        loa: [-bias - 1.96 * sd, -bias + 1.96 * sd],
+      },
     ],
     ...overrides,
   }
