@@ -6,6 +6,7 @@ import { quoteName } from '../db/quote.ts'
 import { AgreementPairModel } from '../models/index.ts'
 import { closedRoundSubjects, onRoundClose } from '../rounds/rounds.service.ts'
 import { currentSettings, onSettingsChange } from '../settings/settings.service.ts'
+import { observerTermInputs, termCacheOf } from './observer-term-cache.ts'
 import { POINT_PAIRS } from './agreement-scope.ts'
 import { attendingIdsOf, loadExaminers } from './examiners.ts'
 import { differenceSql, flipsSql } from './orientation-sql.ts'
@@ -18,10 +19,6 @@ export const PAIR_MAX_INCLINATION_DIFF_DEG = 5
 export const OBSERVER_TERM_MAX_AGE_MS = 10 * 60_000
 
 const DAY_MS = 86_400_000
-
-let cached: { term: ObserverTerm; computedAt: number } | null = null
-let pending: { generation: number; term: Promise<ObserverTerm> } | null = null
-let generation = 0
 
 const [earlierInclination, laterInclination] = [quoteName('earlierInclinationDeg'), quoteName('laterInclinationDeg')]
 
@@ -55,27 +52,35 @@ async function compute(now: number): Promise<ObserverTerm> {
  * calibration rounds closed in the last 365 days, pooled within-subject SD over their complete subjects, once there
  * are 30 (`local-rounds`); else (b) the routine pairs of the last 365 days whose inclinations differ by ≤ 5°, SD of
  * the differences ÷ √2, once there are 30 (`local-pairs`); else the settings' default (`default`). Cached for
- * OBSERVER_TERM_MAX_AGE_MS or until {@link invalidateObserverTerm}; concurrent callers share one computation.
+ * OBSERVER_TERM_MAX_AGE_MS while its inputs (observer-term-cache.ts) stay as they were, so a change saved through any
+ * app server on the database is used by every one from its next call; concurrent callers share one computation.
  */
 export async function observerTerm(): Promise<ObserverTerm> {
+  const cache = termCacheOf(AgreementPairModel.sequelize!)
   const now = Date.now()
-  if (cached && now - cached.computedAt < OBSERVER_TERM_MAX_AGE_MS) return cached.term
-  if (pending?.generation === generation) return pending.term
-  const mine = { generation, term: compute(now) }
-  pending = mine
+  // Read before computing: a change committed meanwhile moves the inputs, and the next call computes again.
+  const inputs = await observerTermInputs()
+  const { held, pending, generation } = cache
+  if (held?.inputs === inputs && now - held.computedAt < OBSERVER_TERM_MAX_AGE_MS) return held.term
+  if (pending?.generation === generation && pending.inputs === inputs) return pending.term
+  const mine = { generation, inputs, term: compute(now) }
+  cache.pending = mine
   try {
     const term = await mine.term
-    if (mine.generation === generation) cached = { term, computedAt: now }
+    if (mine.generation === cache.generation) cache.held = { term, inputs, computedAt: now }
     return term
   } finally {
-    if (pending === mine) pending = null
+    if (cache.pending === mine) cache.pending = null
   }
 }
 
-/** Drops the cached term, e.g. after an exam is submitted or a round closes; the next call recomputes it. */
+/** Drops this server's cached term at once (other servers see the change through its inputs); the next call recomputes. */
 export function invalidateObserverTerm(): void {
-  generation += 1
-  cached = null
+  const sequelize = AgreementPairModel.sequelize
+  if (!sequelize) return
+  const cache = termCacheOf(sequelize)
+  cache.generation += 1
+  cache.held = null
 }
 
 // A new pairing window changes the pairs, a new default σ_observer the default term; a closed round adds subjects.

@@ -1,6 +1,7 @@
 import type { Request, RequestHandler } from 'express'
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
 import { AppError, invalidInput } from '../errors.ts'
+import { DatabaseStore } from './rate-limit-store.ts'
 
 /** Attempts are counted over 15 minutes (product default, no published source). */
 export const ATTEMPT_WINDOW_MS = 15 * 60 * 1000
@@ -43,7 +44,13 @@ export interface AttemptLimit {
   failuresOnly?: boolean
 }
 
-/** A limiter answering the (limit + 1)th attempt in the window with a 429 `too-many-attempts`. */
+/** Counts are kept per route (`/api/auth/login|…`): two limiters keying clients alike never add up each other's attempts. */
+const perRoute = (key: AttemptLimit['key']) => (req: Request) => `${req.baseUrl}${String(req.route?.path ?? req.path)}|${key(req)}`
+
+/**
+ * A limiter answering the (limit + 1)th attempt in the window with a 429 `too-many-attempts`. Attempts are counted in
+ * the database (rate-limit-store.ts), so every app server on it holds a client to the same limit.
+ */
 export function attemptLimiter({ limit, key, message, failuresOnly = false }: AttemptLimit): RequestHandler {
   return rateLimit({
     windowMs: ATTEMPT_WINDOW_MS,
@@ -51,7 +58,8 @@ export function attemptLimiter({ limit, key, message, failuresOnly = false }: At
     skipSuccessfulRequests: failuresOnly,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
-    keyGenerator: key,
+    store: new DatabaseStore(),
+    keyGenerator: perRoute(key),
     handler: (_req, _res, next) => next(new AppError('too-many-attempts', 429, message)),
   })
 }

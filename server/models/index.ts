@@ -8,6 +8,7 @@ import { AgreementPairModel, initAgreementPairModel } from './agreement-pair.ts'
 import { AttachmentModel, initAttachmentModel } from './attachment.ts'
 import { SettingsVersionModel, initSettingsVersionModel } from './settings-version.ts'
 import { ReferenceModel, initReferenceModel } from './reference.ts'
+import { RateLimitHitModel, initRateLimitHitModel } from './rate-limit-hit.ts'
 
 export { UserModel, UserRoleModel, withRole }
 export { ExamModel }
@@ -18,6 +19,7 @@ export { AgreementPairModel }
 export { AttachmentModel }
 export { SettingsVersionModel }
 export { ReferenceModel }
+export { RateLimitHitModel }
 
 export class TeamModel extends Model<InferAttributes<TeamModel>, InferCreationAttributes<TeamModel>> {
   declare id: string
@@ -105,6 +107,7 @@ export function initModels(sequelize: Sequelize) {
   initAttachmentModel(sequelize)
   initSettingsVersionModel(sequelize)
   initReferenceModel(sequelize)
+  initRateLimitHitModel(sequelize)
   return {
     UserModel,
     UserRoleModel,
@@ -122,5 +125,6 @@ export function initModels(sequelize: Sequelize) {
     AttachmentModel,
     SettingsVersionModel,
     ReferenceModel,
+    RateLimitHitModel,
   }
 }

@@ -19,8 +19,9 @@ export interface SettingsChange {
 }
 
 const HISTORY_LENGTH = 20
-// Per database, so each test's fresh database reads its own settings; replaced, never mutated, on every save.
-const cache = new WeakMap<Sequelize, Promise<SettingsVersion>>()
+// Per database, so each test's fresh database reads its own settings; replaced, never mutated, when a newer version is
+// seen. Several app servers may share the database: the cached copy is only used while it is still the latest version.
+const cache = new WeakMap<Sequelize, SettingsVersion>()
 const listeners: ((change: SettingsChange) => void)[] = []
 
 const present = (row: SettingsVersionModel): SettingsVersion => ({
@@ -35,19 +36,23 @@ async function latestRow(transaction?: Transaction): Promise<SettingsVersionMode
   return row
 }
 
+/** The number of the newest stored version: the end of the primary key, one row read whichever server saved it. */
+export async function latestSettingsVersion(): Promise<number> {
+  return Number(await SettingsVersionModel.max('version'))
+}
+
 /**
- * The settings in force and their version, for any server code (the estimate, pairing, photos). Read from the
- * database once and kept in memory until an admin saves a new version.
+ * The settings in force and their version, for any server code (the estimate, pairing, photos). Each call reads the
+ * newest version number; the values are read and parsed again only when it differs from the copy in memory, so a
+ * save through any app server is in force on every other from its next call.
  */
-export function currentSettings(): Promise<SettingsVersion> {
+export async function currentSettings(): Promise<SettingsVersion> {
   const sequelize = SettingsVersionModel.sequelize!
-  let current = cache.get(sequelize)
-  if (!current) {
-    current = latestRow().then(present)
-    current.catch(() => cache.delete(sequelize))
-    cache.set(sequelize, current)
-  }
-  return current
+  const [latest, held] = [await latestSettingsVersion(), cache.get(sequelize)]
+  if (held?.version === latest) return held
+  const fresh = present(await latestRow())
+  cache.set(sequelize, fresh)
+  return fresh
 }
 
 /** Calls `listener` after each saved change (not for a save that changes nothing), e.g. to drop caches built on the old values. */
@@ -82,7 +87,7 @@ export async function updateSettings(admin: User, input: AppSettingsUpdate): Pro
     await audit({ actorId: admin.id, action: 'settings-update', entityType: 'settings', entityId: String(row.version), changes: { ...changes, version } }, { transaction })
     return { saved: present(row), change: { before, after: present(row) } }
   })
-  cache.set(sequelize, Promise.resolve(saved))
+  cache.set(sequelize, saved)
   if (change) for (const listener of listeners) listener(change)
   return saved
 }

@@ -1,6 +1,8 @@
+import { randomUUID } from 'node:crypto'
 import request from 'supertest'
 import { beforeEach, describe, expect, it } from 'vitest'
 import { invalidateObserverTerm, observerTerm } from '../../../server/agreement/observer-term.ts'
+import { AgreementPairModel } from '../../../server/models/index.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
 import { DAY, MINUTE, storeExam, storeRound } from './factories.ts'
 
@@ -172,10 +174,10 @@ describe('observerTerm: routine pairs when rounds are too few', () => {
     expect(term).toMatchObject({ source: 'local-pairs', sigmaCm: 1 })
   })
 
-  it('keeps its cached value until invalidated, then recomputes', async () => {
+  it('keeps its cached value while no exam and no setting changed, until invalidated here', async () => {
     await storePairs(29)
     const before = await observerTerm()
-    await storePairs(1, { daysAgo: 100 })
+    await copyOnePair()
 
     const cached = await observerTerm()
     invalidateObserverTerm()
@@ -185,4 +187,22 @@ describe('observerTerm: routine pairs when rounds are too few', () => {
     expect(cached.source).toBe('default')
     expect(recomputed.source).toBe('local-pairs')
   })
+
+  it('recomputes once an exam is written, with nothing invalidated in this process (as when another server wrote it)', async () => {
+    await storePairs(29)
+    const before = await observerTerm()
+
+    await storePairs(1, { daysAgo: 100 })
+    const after = await observerTerm()
+
+    expect(before.source).toBe('default')
+    expect(after.source).toBe('local-pairs')
+  })
 })
+
+/** One more stored pair written straight into the table, as no exam write does: the term's inputs stay as they were. */
+async function copyOnePair() {
+  const q = AgreementPairModel.sequelize!.getQueryInterface()
+  const [row] = (await AgreementPairModel.findAll({ limit: 1, raw: true })) as unknown as Record<string, unknown>[]
+  await q.bulkInsert('agreement_pairs', [{ ...row, earlierExamId: randomUUID(), laterExamId: randomUUID() }])
+}
