@@ -4,9 +4,20 @@ import { fileURLToPath, pathToFileURL, URL } from 'node:url'
 import type { Plugin, UserConfig } from 'vite'
 import { defineConfig, type ViteUserConfig } from 'vitest/config'
 import vue from '@vitejs/plugin-vue'
+import { postgresBin } from './tests/server/postgres-bin.ts'
 import vuetify from 'vite-plugin-vuetify'
 import { VitePWA } from 'vite-plugin-pwa'
 import { compression } from 'vite-plugin-compression2'
+
+// The server-pg project needs PostgreSQL's programs (Debian: package postgresql); without them it is skipped, once, aloud.
+const postgresInstalled = Boolean(postgresBin())
+const warned = Symbol.for('plumbline.postgres-missing-warned')
+if (!postgresInstalled && process.env.VITEST && !process.env.VITEST_POOL_ID && !(globalThis as Record<symbol, unknown>)[warned]) {
+  ;(globalThis as Record<symbol, unknown>)[warned] = true
+  console.warn(
+    'server-pg: PostgreSQL is not installed (no initdb under /usr/lib/postgresql/*/bin or PG_BIN); skipping the server tests on PostgreSQL',
+  )
+}
 
 const apiTarget = `http://localhost:${process.env.PORT ?? 3000}`
 
@@ -180,6 +191,27 @@ const app: ViteUserConfig = {
           isolate: false,
           setupFiles: ['tests/server/fresh-modules.ts'],
           testTimeout: 20_000,
+        },
+      },
+      {
+        extends: true,
+        // The same files on PostgreSQL: a throwaway cluster (tests/server/postgres-cluster.ts) and a database per test
+        // copied from one migrated template. Tests about SQLite itself are marked `describe.runIf(isSqlite)`.
+        test: {
+          name: 'server-pg',
+          environment: 'node',
+          include: postgresInstalled ? ['tests/server/**/*.test.ts'] : [],
+          // The fuzz sample sends thousands of requests; it checks the routes' input handling, which the database does
+          // not change, so it runs once, on SQLite.
+          exclude: ['tests/server/fuzz/**'],
+          env: { TEST_DATABASE: 'postgres' },
+          globalSetup: ['tests/server/postgres-cluster.ts'],
+          isolate: false,
+          setupFiles: ['tests/server/fresh-modules.ts'],
+          // Every query is a round trip to another process: a test of many writes takes longer than on SQLite.
+          testTimeout: 30_000,
+          // A file's first database is a copy of the template, and the demo seed's many writes are round trips.
+          hookTimeout: 60_000,
         },
       },
       {

@@ -1,5 +1,6 @@
 import { QueryTypes, UniqueConstraintError, type Sequelize, type Transaction } from 'sequelize'
 import { GENESIS_HASH, linkRows } from './audit-trail/audit-chain.ts'
+import { holdWriteOrder } from './db/write-locks.ts'
 import { AuditEventModel } from './models/index.ts'
 
 export interface AuditEntry {
@@ -32,14 +33,28 @@ function rowOf(entry: AuditEntry, at: Date) {
   }
 }
 
+/** The events chained after the head and inserted in one statement; the head's writers are kept out (holdWriteOrder). */
+async function appendLocked(db: Sequelize, entries: AuditEntry[], transaction: Transaction): Promise<void> {
+  await holdWriteOrder(db, transaction)
+  const rows = linkRows(
+    entries.map((entry) => rowOf(entry, new Date())),
+    await headOf(db, transaction),
+  )
+  await db.getQueryInterface().bulkInsert('audit_events', rows, { transaction })
+}
+
 /**
  * Appends the events in one statement, each chained to the one before (server/audit-trail/audit-chain.ts). The head is
  * read in the caller's transaction, whose write lock (writeTransaction) keeps any other writer from appending between
- * the read and the insert.
+ * the read and the insert. PostgreSQL has no such lock: the append takes the write-order lock (db/write-locks.ts)
+ * before it reads the head, in the caller's transaction or in one of its own.
  */
 async function append(entries: AuditEntry[], transaction?: Transaction): Promise<void> {
   if (entries.length === 0) return
   const db = AuditEventModel.sequelize!
+  if (db.getDialect() !== 'sqlite') {
+    return transaction ? appendLocked(db, entries, transaction) : db.transaction((own) => appendLocked(db, entries, own))
+  }
   for (let attempt = 1; ; attempt += 1) {
     try {
       const at = new Date()

@@ -20,6 +20,11 @@ export const ConfigSchema = z
     PORT: z.coerce.number().int().min(0).max(65535).default(3000),
     HOST: z.string().default('127.0.0.1'),
     DATA_DIR: z.string().default('./data'),
+    /** A `postgres://` URL selects PostgreSQL; without it the database is the SQLite file in DATA_DIR. */
+    DATABASE_URL: z
+      .string()
+      .regex(/^postgres(?:ql)?:\/\//, 'DATABASE_URL must be a postgres:// or postgresql:// URL')
+      .optional(),
     JWT_SECRET: z.string().min(64, 'JWT_SECRET must be at least 64 characters').optional(),
     DEMO: flag.default(true),
     COOKIE_SECURE: flag.default(true),

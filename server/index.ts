@@ -8,7 +8,7 @@ import { observerTerm } from './agreement/observer-term.ts'
 import { createApp } from './app.ts'
 import { loadConfig, type Config } from './config.ts'
 import { createMigrator } from './db/migrator.ts'
-import { databaseFile, journalMode, openDatabase } from './db/sequelize.ts'
+import { databaseLocation, isSqlite, journalMode, openDatabase } from './db/sequelize.ts'
 import { seedDemo } from './demo/seed.ts'
 import { createLogger } from './logger.ts'
 import { startFakeSmtp } from './mail/fake-smtp.ts'
@@ -38,11 +38,13 @@ export interface RunningServer {
 export async function startServer(config: Config): Promise<RunningServer> {
   const log = createLogger(config.LOG_LEVEL)
   mkdirSync(config.DATA_DIR, { recursive: true })
-  const sequelize = openDatabase(databaseFile(config.DATA_DIR))
+  const sequelize = openDatabase(databaseLocation(config))
   await sequelize.authenticate()
-  // Writers queue and readers go on beside them only in WAL (db/sqlite-connection.ts); another process holding the file
-  // as it is first switched would leave it in its old mode.
-  if ((await journalMode(sequelize)) !== 'wal') throw new Error('The database is not in WAL mode; is another process holding it?')
+  // SQLite: writers queue and readers go on beside them only in WAL (db/sqlite-connection.ts); another process holding
+  // the file as it is first switched would leave it in its old mode.
+  if (isSqlite(sequelize) && (await journalMode(sequelize)) !== 'wal') {
+    throw new Error('The database is not in WAL mode; is another process holding it?')
+  }
   const models = initModels(sequelize)
   await createMigrator(sequelize).up()
   if (config.DEMO) await seedDemo()

@@ -9,3 +9,13 @@ import { schemaDialect } from './dialect.ts'
 export async function dropColumn(q: QueryInterface, table: string, column: string): Promise<void> {
   await schemaDialect(q).dropColumn(q, table, column)
 }
+
+/** Renames a table and frees every name made from the old one (PostgreSQL names its primary key and id sequence after it). */
+export async function renameTable(q: QueryInterface, from: string, to: string): Promise<void> {
+  await schemaDialect(q).renameTable(q, from, to)
+}
+
+/** After rows were copied in with their ids, the next generated id follows the highest one stored. */
+export async function continueIds(q: QueryInterface, table: string, column: string): Promise<void> {
+  await schemaDialect(q).continueIds(q, table, column)
+}

@@ -1,11 +1,13 @@
 import { mkdirSync } from 'node:fs'
 import { loadConfig } from '../config.ts'
 import { createMigrator } from './migrator.ts'
-import { databaseFile, openDatabase } from './sequelize.ts'
+import { databaseLocation, isPostgresUrl, openDatabase } from './sequelize.ts'
 
+// `npm run migrate`: the pending migrations on DATABASE_URL when set, else on the SQLite file in DATA_DIR.
 const config = loadConfig()
-mkdirSync(config.DATA_DIR, { recursive: true })
-const sequelize = openDatabase(databaseFile(config.DATA_DIR))
+const location = databaseLocation(config)
+if (!isPostgresUrl(location)) mkdirSync(config.DATA_DIR, { recursive: true })
+const sequelize = openDatabase(location)
 const done = await createMigrator(sequelize).up()
 console.log(`Applied ${done.length} migration(s)`)
 await sequelize.close()

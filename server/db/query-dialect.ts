@@ -17,7 +17,14 @@ const sqliteQueries: QueryDialect = {
   indexHint: (index) => `INDEXED BY "${index.replaceAll('"', '""')}"`,
 }
 
-const DIALECTS: Record<string, QueryDialect> = { sqlite: sqliteQueries }
+// PostgreSQL keeps timestamptz; a bound ISO 8601 text is cast to it. EXTRACT answers numeric, read back as a double.
+// It has no index hints: its planner chooses from statistics.
+const postgresQueries: QueryDialect = {
+  epochMs: (expr) => `(round(EXTRACT(EPOCH FROM CAST(${expr} AS timestamptz)) * 1000))::double precision`,
+  indexHint: () => '',
+}
+
+const DIALECTS: Record<string, QueryDialect> = { sqlite: sqliteQueries, postgres: postgresQueries }
 
 export function queryDialect(sequelize: Sequelize): QueryDialect {
   const dialect = DIALECTS[sequelize.getDialect()]

@@ -5,6 +5,12 @@ import { databaseFile } from './sequelize.ts'
 
 // `npm run restore -- FILE`: puts a backup in place of DATA_DIR's database; the server must be stopped.
 const config = loadConfig()
+if (config.DATABASE_URL) {
+  console.error(
+    "npm run restore works on the SQLite file in DATA_DIR; DATABASE_URL names a PostgreSQL database: use PostgreSQL's own tools (pg_restore of a pg_dump -Fc archive)",
+  )
+  process.exit(2)
+}
 const file = process.argv[2]
 if (!file) {
   console.error('Usage: npm run restore -- FILE (a backup written by npm run backup)')

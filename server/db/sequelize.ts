@@ -1,4 +1,5 @@
 import path from 'node:path'
+import pg from 'pg'
 import { QueryTypes, Sequelize } from 'sequelize'
 import { serverSqlite3 } from './sqlite-connection.ts'
 import { holdsWriteTurn, inWriteTurn } from './write-queue.ts'
@@ -6,13 +7,32 @@ import { holdsWriteTurn, inWriteTurn } from './write-queue.ts'
 /** The database file the server keeps in its data folder. */
 export const databaseFile = (dataDir: string) => path.join(dataDir, 'plumbline.sqlite')
 
+const POSTGRES_URL = /^postgres(?:ql)?:\/\//
+
+/** Where the server's data lives: `DATABASE_URL` (PostgreSQL) when set, else the SQLite file in `DATA_DIR`. */
+export function databaseLocation(config: { DATABASE_URL?: string | undefined; DATA_DIR: string }): string {
+  return config.DATABASE_URL ?? databaseFile(config.DATA_DIR)
+}
+
+/** Whether `location` names a PostgreSQL database rather than a SQLite file. */
+export const isPostgresUrl = (location: string) => POSTGRES_URL.test(location)
+
+/** Whether the database is SQLite (one writer at a time, a file that `npm run backup` can copy). */
+export const isSqlite = (sequelize: Sequelize) => sequelize.getDialect() === 'sqlite'
+
+// COUNT(*) and other bigint results arrive from pg as text, as they may exceed 2^53; every bigint this app reads (counts,
+// the sync cursor, ids) stays far below it, so it is read as a number, as SQLite gives it.
+pg.types.setTypeParser(pg.types.builtins.INT8, (value: string) => Number.parseInt(value, 10))
+
 /**
- * Opens SQLite through Sequelize: `storage` is a file path or ':memory:'. Every connection gets WAL, the busy timeout
- * and `synchronous` (sqlite-connection.ts). The one place that knows the database is SQLite; PostgreSQL would be opened
- * here from a URL, without the write queue of statements below (write-queue.ts skips dialects that lock rows).
+ * Opens the database through Sequelize: a `postgres://` URL, else a SQLite file path or ':memory:'. The one place that
+ * knows which database is in use. Every SQLite connection gets WAL, the busy timeout and `synchronous`
+ * (sqlite-connection.ts), and its statements that write outside a transaction wait their turn (write-queue.ts);
+ * PostgreSQL runs such statements at once, as it locks rows (write transactions: transaction.ts).
  */
-export function openDatabase(storage: string): Sequelize {
-  const sequelize = new Sequelize({ dialect: 'sqlite', dialectModule: serverSqlite3, storage, logging: false })
+export function openDatabase(location: string): Sequelize {
+  if (isPostgresUrl(location)) return new Sequelize(location, { dialect: 'postgres', dialectModule: pg, logging: false })
+  const sequelize = new Sequelize({ dialect: 'sqlite', dialectModule: serverSqlite3, storage: location, logging: false })
   queueStatementsThatWrite(sequelize)
   return sequelize
 }

@@ -4,9 +4,10 @@ import type { Sequelize } from 'sequelize'
 // SQLite lets one connection write to a file at a time (https://www.sqlite.org/lockingv3.html), and Sequelize's sqlite
 // dialect opens a connection per transaction: two transactions of this process would fight over the lock through the
 // busy handler, each waiting on a thread of libuv's small pool. Queued here, the writers of one database take turns in
-// this process and the lock is always free when one begins. PostgreSQL locks rows, not the database: a dialect added
-// there runs its writers side by side and guards a row it checks with SELECT … FOR UPDATE, so it is left out of this set.
-const SERIALISED_DIALECTS = new Set(['sqlite'])
+// this process and the lock is always free when one begins. PostgreSQL's write transactions take one lock first
+// (write-locks.ts) and so run one after another anyway: queued here, a waiting writer holds no pooled connection, which
+// the writer in turn may need for a read of its own.
+const SERIALISED_DIALECTS = new Set(['sqlite', 'postgres'])
 
 const queues = new WeakMap<Sequelize, { tail: Promise<unknown> }>()
 // The turn the current async call chain holds, so a write made inside it is not queued behind it. `held` ends with the
@@ -21,7 +22,7 @@ export function holdsWriteTurn(sequelize: Sequelize): boolean {
 
 /**
  * Runs `work` once every write queued before it on this database has settled, one at a time; a failed write does not
- * hold up the next. On a database that locks rows, `work` runs at once.
+ * hold up the next. On a database not listed above, `work` runs at once.
  */
 export function inWriteTurn<T>(sequelize: Sequelize, work: () => Promise<T>): Promise<T> {
   if (!SERIALISED_DIALECTS.has(sequelize.getDialect())) return work()

@@ -267,7 +267,7 @@ export async function closeRound(user: User, id: string): Promise<void> {
     const closedAt = new Date()
     await round!.update({ status: 'closed', closedAt }, { transaction })
     // Touch the entries so their sync cursor moves: devices that may now read them pull them on their next sync.
-    await ExamModel.sequelize!.query('UPDATE exams SET roundId = roundId WHERE roundId = :id', { replacements: { id }, transaction })
+    await ExamModel.sequelize!.query('UPDATE "exams" SET "roundId" = "roundId" WHERE "roundId" = :id', { replacements: { id }, transaction })
     await derivePairs(loaded.patientCodes, { sequelize: ExamModel.sequelize!, transaction })
     const changes = { status: { from: 'open', to: 'closed' }, closedAt: { from: null, to: closedAt.toISOString() } }
     await audit({ actorId: user.id, action: 'round-close', entityType: 'round', entityId: id, changes }, { transaction })

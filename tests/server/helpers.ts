@@ -1,4 +1,6 @@
 import { randomUUID } from 'node:crypto'
+import { copyFileSync } from 'node:fs'
+import path from 'node:path'
 import bcrypt from 'bcryptjs'
 import { pino } from 'pino'
 import type { Database } from 'sqlite3'
@@ -12,11 +14,15 @@ import { signAccessToken } from '../../server/auth/tokens.ts'
 import { createMigrator } from '../../server/db/migrator.ts'
 import { openDatabase } from '../../server/db/sequelize.ts'
 import { initModels, MembershipModel, TeamModel, UserModel } from '../../server/models/index.ts'
+import { isPostgres, POSTGRES_TEMPLATE } from './database-kind.ts'
+import { createPostgresDatabase, freshFileDatabase } from './postgres-databases.ts'
 
 declare module 'vitest' {
   export interface ProvidedContext {
     /** A SQLite file with every migration applied (tests/server/template-database.ts), copied into each test's database. */
     templateDatabase: string
+    /** `postgres://user@host:port` of the server-pg project's cluster (tests/server/postgres-cluster.ts). */
+    postgresServer: string
   }
 }
 
@@ -49,29 +55,57 @@ interface Backup {
   finish(): void
 }
 
-/** A fresh in-memory database with every migration applied (from the run's template when there is one) and its models. */
-export async function openTestDatabaseWithModels() {
+/** A fresh database with every migration applied: SQLite in memory, or on PostgreSQL a copy of the run's template. */
+async function openMigrated(): Promise<Sequelize> {
+  if (isPostgres) {
+    const own = await freshFileDatabase()
+    const sequelize = openDatabase(own.url)
+    own.opened.push(sequelize)
+    return sequelize
+  }
   const sequelize = openDatabase(':memory:')
-  const models = initModels(sequelize)
   const template = inject('templateDatabase')
   if (template) await restoreTemplate(sequelize, template)
   else await createMigrator(sequelize).up()
-  return { sequelize, models }
+  return sequelize
 }
 
-/** A fresh in-memory database with every migration applied, from the run's template when there is one. */
+/** A fresh database with every migration applied (from the run's template when there is one) and its models. */
+export async function openTestDatabaseWithModels() {
+  const sequelize = await openMigrated()
+  return { sequelize, models: initModels(sequelize) }
+}
+
+/** An empty database, for tests that migrate it step by step: SQLite in memory, or a new PostgreSQL database. */
+export async function openBlankDatabase(): Promise<Sequelize> {
+  return openDatabase(isPostgres ? await createPostgresDatabase('template0') : ':memory:')
+}
+
+/**
+ * Where a second connection can open the same migrated database: a copy of the template as a SQLite file in `dir`, or
+ * the URL of a new PostgreSQL database (`dir` unused). For tests of several connections or servers on one database.
+ */
+export async function sharedTestDatabase(dir: string): Promise<string> {
+  if (isPostgres) return createPostgresDatabase(POSTGRES_TEMPLATE)
+  const file = path.join(dir, 'plumbline.sqlite')
+  copyFileSync(inject('templateDatabase'), file)
+  return file
+}
+
+/** A fresh database with every migration applied, from the run's template when there is one. */
 export async function openTestDatabase(): Promise<Sequelize> {
   return (await openTestDatabaseWithModels()).sequelize
 }
 
-/** A fresh in-memory database, migrated, and the app built on it. */
+/** A fresh database, migrated, and the app built on it. */
 export async function makeTestApp(overrides: Partial<AppDeps> = {}) {
   const { sequelize, models } = await openTestDatabaseWithModels()
   const app = createApp({
     sequelize,
     models,
     secret: TEST_SECRET,
-    log: pino({ level: 'silent' }),
+    // TEST_LOG_LEVEL=error shows what a 500 hides.
+    log: pino({ level: process.env.TEST_LOG_LEVEL ?? 'silent' }),
     demo: false,
     cookieSecure: false,
     ...overrides,

@@ -1,13 +1,15 @@
-import { copyFileSync, mkdtempSync, rmSync } from 'node:fs'
+import { mkdtempSync, rmSync } from 'node:fs'
 import { Agent, createServer, get, type Server } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { tmpdir } from 'node:os'
 import path from 'node:path'
-import { afterAll, afterEach, describe, expect, inject, it } from 'vitest'
+import { afterAll, afterEach, describe, expect, it } from 'vitest'
 import { loadConfig } from '../../server/config.ts'
+import { isPostgresUrl } from '../../server/db/sequelize.ts'
 import { startServer } from '../../server/index.ts'
 import { UserModel } from '../../server/models/index.ts'
 import { closeGracefully } from '../../server/shutdown.ts'
+import { sharedTestDatabase } from './helpers.ts'
 
 const cleanups: (() => void)[] = []
 
@@ -79,7 +81,7 @@ describe('the running server’s close (on SIGTERM)', () => {
   it('does not wait for idle keep-alive connections, and closes the database', async () => {
     const dir = mkdtempSync(path.join(tmpdir(), 'plumbline-shutdown-'))
     cleanups.push(() => rmSync(dir, { recursive: true, force: true }))
-    copyFileSync(inject('templateDatabase'), path.join(dir, 'plumbline.sqlite'))
+    const location = await sharedTestDatabase(dir)
     // A grace period longer than the test's timeout: waiting for the idle connection would fail the test.
     const env = {
       PORT: '0',
@@ -88,6 +90,7 @@ describe('the running server’s close (on SIGTERM)', () => {
       LOG_LEVEL: 'silent',
       PUBLIC_URL: 'https://plumbline.test',
       SHUTDOWN_GRACE_MS: '60000',
+      ...(isPostgresUrl(location) && { DATABASE_URL: location }),
     }
     const running = await startServer(loadConfig(env))
     expect(await outcome(`${running.url}/api/health`)).toBe('200 {"status":"ok","demo":false}')

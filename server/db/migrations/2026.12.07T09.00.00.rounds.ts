@@ -1,5 +1,6 @@
 import { DataTypes, type QueryInterface } from 'sequelize'
 import { dropColumn } from '../columns.ts'
+import { byDatabase } from '../dialect.ts'
 
 const id = { type: DataTypes.STRING(36), allowNull: false }
 
@@ -29,7 +30,12 @@ export async function up(q: QueryInterface): Promise<void> {
   // ALTER TABLE … ADD: the exams table is not rebuilt, so its sync-cursor triggers stay in place.
   await q.addColumn('exams', 'roundId', { type: DataTypes.STRING(36), allowNull: true, references: { model: 'rounds', key: 'id' } })
   // Partial: only round entries are indexed, and the agreement query finds them to leave them out of pairing.
-  await q.sequelize.query('CREATE INDEX exams_round_id ON exams (roundId, examinerId, patientCode) WHERE roundId IS NOT NULL')
+  await q.sequelize.query(
+    byDatabase(q, {
+      sqlite: 'CREATE INDEX exams_round_id ON exams (roundId, examinerId, patientCode) WHERE roundId IS NOT NULL',
+      postgres: 'CREATE INDEX exams_round_id ON exams ("roundId", "examinerId", "patientCode") WHERE "roundId" IS NOT NULL',
+    }),
+  )
 }
 
 export async function down(q: QueryInterface): Promise<void> {

@@ -1,6 +1,6 @@
 import { DataTypes, QueryTypes, type QueryInterface } from 'sequelize'
 import { GENESIS_HASH, linkRows } from '../../audit-trail/audit-chain.ts'
-import { dropColumn } from '../columns.ts'
+import { continueIds, dropColumn, renameTable } from '../columns.ts'
 import { appendOnlyTriggers } from '../triggers.ts'
 
 // The columns of audit_events as 2026.12.02T06.00.00.foundation made them.
@@ -50,13 +50,14 @@ export async function up(q: QueryInterface): Promise<void> {
   const chain = await chainOfExisting(q)
   await q.createTable('audit_chain_backfill', { id: { type: DataTypes.INTEGER, primaryKey: true }, ...CHAIN_COLUMNS })
   for (let i = 0; i < chain.length; i += 500) await q.bulkInsert('audit_chain_backfill', chain.slice(i, i + 500))
-  await q.renameTable('audit_events', 'audit_events_unchained')
+  await renameTable(q, 'audit_events', 'audit_events_unchained')
   await q.createTable('audit_events', { ...EVENT_COLUMNS, ...CHAIN_COLUMNS })
   await q.sequelize.query(
     `INSERT INTO "audit_events" (${names()}, "seq", "prevHash", "hash")
      SELECT ${names('e.')}, c."seq", c."prevHash", c."hash"
      FROM "audit_events_unchained" e LEFT JOIN "audit_chain_backfill" c ON c."id" = e."id"`,
   )
+  await continueIds(q, 'audit_events', 'id')
   await q.dropTable('audit_events_unchained')
   await q.dropTable('audit_chain_backfill')
   await q.addIndex('audit_events', ['entityType', 'entityId'])

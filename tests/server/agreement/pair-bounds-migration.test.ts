@@ -1,17 +1,17 @@
+import type { Sequelize } from 'sequelize'
 import { QueryTypes } from 'sequelize'
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import { createMigrator } from '../../../server/db/migrator.ts'
-import { openDatabase } from '../../../server/db/sequelize.ts'
 import { ExamModel, initModels } from '../../../server/models/index.ts'
-import { makeCaller, makeTeam } from '../helpers.ts'
+import { makeCaller, makeTeam, openBlankDatabase } from '../helpers.ts'
 import { DAY, MINUTE, examValues } from './factories.ts'
 
 const MIGRATION = '2026.12.10T09.30.00.agreement-pair-bounds'
 const TABLE_MIGRATION = '2026.12.08T09.00.00.agreement-pairs-table'
-let sequelize = openDatabase(':memory:')
+let sequelize: Sequelize
 
-beforeEach(() => {
-  sequelize = openDatabase(':memory:')
+beforeEach(async () => {
+  sequelize = await openBlankDatabase()
   initModels(sequelize)
 })
 

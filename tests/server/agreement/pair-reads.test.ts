@@ -1,14 +1,13 @@
-import { copyFileSync, mkdtempSync, rmSync } from 'node:fs'
+import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import path from 'node:path'
 import { pino } from 'pino'
-import { afterEach, describe, expect, inject, it } from 'vitest'
+import { afterEach, describe, expect, it } from 'vitest'
 import { derivePairs } from '../../../server/agreement/pair-derivation.ts'
 import { createApp } from '../../../server/app.ts'
-import { createMigrator } from '../../../server/db/migrator.ts'
 import { openDatabase } from '../../../server/db/sequelize.ts'
 import { ExamModel, initModels } from '../../../server/models/index.ts'
-import { makeCaller, makeTeam, makeTestApp, TEST_SECRET } from '../helpers.ts'
+import { makeCaller, makeTeam, makeTestApp, sharedTestDatabase, TEST_SECRET } from '../helpers.ts'
 import { DAY, examValues, MINUTE, pairsAs, storeExam, summaryAs, trendAs } from './factories.ts'
 
 const T0 = Date.now() - 30 * DAY
@@ -19,17 +18,14 @@ afterEach(async () => {
 })
 
 /**
- * One SQLite file and two connections to it: the app's, and another app server's, which derives pairs in its own
+ * One database (a SQLite file, or on PostgreSQL a database of its own) and two connections to it: the app's, and another app server's, which derives pairs in its own
  * transactions. Nothing tells the app about the other server's writes but the table itself.
  */
 async function sharedDatabase() {
   const dir = mkdtempSync(path.join(tmpdir(), 'plumbline-agreement-'))
-  const file = path.join(dir, 'shared.sqlite')
-  const template = inject('templateDatabase')
-  if (template) copyFileSync(template, file)
+  const file = await sharedTestDatabase(dir)
   const sequelize = openDatabase(file)
   const models = initModels(sequelize)
-  if (!template) await createMigrator(sequelize).up()
   const other = openDatabase(file)
   cleanups.push(async () => {
     await other.close()

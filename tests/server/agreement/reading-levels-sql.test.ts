@@ -25,7 +25,7 @@ describe('the kappas’ levels in SQL (reading-levels-sql.ts)', () => {
     const levelsOf = async (r: Reading) => {
       const sql =
         `SELECT ${elevatedLevelSql('later')} AS "elevated", ${categoryLevelSql('later')} AS "category" FROM ` +
-        `(SELECT :top AS "laterColumnTop", :h AS "laterHeightCm", :cvp AS "laterCvpCmH2O") AS "reading"`
+        `(SELECT :top AS "laterColumnTop", CAST(:h AS DOUBLE PRECISION) AS "laterHeightCm", CAST(:cvp AS DOUBLE PRECISION) AS "laterCvpCmH2O") AS "reading"`
       const replacements = { top: r.columnTop, h: r.heightCm, cvp: r.cvpCmH2O }
       const [row] = await sequelize.query<{ elevated: number | null; category: number | null }>(sql, { replacements, type: QueryTypes.SELECT })
       return row!

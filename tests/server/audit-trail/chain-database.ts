@@ -1,16 +1,17 @@
-import { copyFileSync, mkdtempSync, rmSync } from 'node:fs'
+import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import path from 'node:path'
+import pg from 'pg'
 import sqlite3 from 'sqlite3'
-import { inject } from 'vitest'
-import { openDatabase } from '../../../server/db/sequelize.ts'
+import { isPostgresUrl, openDatabase } from '../../../server/db/sequelize.ts'
 import { initModels } from '../../../server/models/index.ts'
+import { isPostgres } from '../database-kind.ts'
+import { sharedTestDatabase } from '../helpers.ts'
 
-/** A migrated database in a file of its own, as on a server, with the models bound to it. */
-export function fileDatabase() {
+/** A migrated database of its own (a file, as on a server, or a PostgreSQL database), with the models bound to it. */
+export async function fileDatabase() {
   const dir = mkdtempSync(path.join(tmpdir(), 'plumbline-chain-'))
-  const file = path.join(dir, 'plumbline.sqlite')
-  copyFileSync(inject('templateDatabase'), file)
+  const file = await sharedTestDatabase(dir)
   const sequelize = openDatabase(file)
   initModels(sequelize)
   const cleanup = async () => {
@@ -20,10 +21,21 @@ export function fileDatabase() {
   return { dir, file, sequelize, cleanup }
 }
 
-/** Runs SQL on the database file through a connection of its own, as anyone who can write the file could. */
-export function rawSql(file: string, sql: string): Promise<void> {
+/** The statement dropping one of audit_events' triggers, as the database in use spells it. */
+export const dropTrigger = (name: string) => (isPostgres ? `DROP TRIGGER ${name} ON audit_events;` : `DROP TRIGGER ${name};`)
+
+/** Runs SQL on the database through a connection of its own, as anyone who can write the file (or log in) could. */
+export async function rawSql(location: string, sql: string): Promise<void> {
+  if (isPostgresUrl(location)) {
+    const client = new pg.Client({ connectionString: location })
+    await client.connect()
+    return client.query(sql).then(
+      () => client.end(),
+      (err: Error) => client.end().then(() => Promise.reject(err)),
+    )
+  }
   return new Promise((resolve, reject) => {
-    const db = new sqlite3.Database(file)
+    const db = new sqlite3.Database(location)
     db.exec(sql, (err) => db.close(() => (err ? reject(err) : resolve())))
   })
 }

@@ -1,14 +1,14 @@
 import { QueryTypes } from 'sequelize'
+import { openBlankDatabase } from '../helpers.ts'
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import type { Sequelize } from 'sequelize'
 import { verifyAuditChain } from '../../../server/audit-trail/chain-verify.ts'
 import { createMigrator } from '../../../server/db/migrator.ts'
-import { openDatabase } from '../../../server/db/sequelize.ts'
 
 const BEFORE_CHAIN = '2026.12.10T09.30.00.agreement-pair-bounds'
 let db: Sequelize
-beforeEach(() => {
-  db = openDatabase(':memory:')
+beforeEach(async () => {
+  db = await openBlankDatabase()
 })
 afterEach(() => db.close())
 

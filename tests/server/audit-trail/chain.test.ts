@@ -7,7 +7,8 @@ import { audit, auditAll } from '../../../server/audit.ts'
 import { chainHash, GENESIS_HASH, type ChainedContent } from '../../../server/audit-trail/audit-chain.ts'
 import { verifyAuditChain } from '../../../server/audit-trail/chain-verify.ts'
 import { writeTransaction } from '../../../server/db/transaction.ts'
-import { fileDatabase, rawSql } from './chain-database.ts'
+import { isSqlite } from '../database-kind.ts'
+import { dropTrigger, fileDatabase, rawSql } from './chain-database.ts'
 
 const sha256 = (text: string) => createHash('sha256').update(text).digest('hex')
 const canonicalFields = (r: Record<string, unknown>) => [
@@ -27,7 +28,7 @@ afterEach(async () => {
 
 /** A database file holding five audited events, written the ways the server writes them. */
 async function trailOfFive() {
-  const db = fileDatabase()
+  const db = await fileDatabase()
   cleanups.push(db.cleanup)
   await audit({ actorId: null, action: 'login-failed', entityType: 'user', changes: { reason: 'wrong-password' } })
   await audit({ actorId: 'user-1', action: 'login', entityType: 'user', entityId: 'user-1' })
@@ -71,7 +72,7 @@ describe('the audit hash chain', () => {
   it('a row deleted after dropping the trigger (raw SQL on the file) is reported as missing at its sequence number', async () => {
     const { sequelize, file } = await trailOfFive()
 
-    await rawSql(file, `DROP TRIGGER audit_events_no_delete; DELETE FROM audit_events WHERE seq = 3;`)
+    await rawSql(file, `${dropTrigger('audit_events_no_delete')} DELETE FROM audit_events WHERE seq = 3;`)
     const report = await verifyAuditChain(sequelize)
 
     expect(report.ok).toBe(false)
@@ -84,7 +85,7 @@ describe('the audit hash chain', () => {
     const { sequelize, file } = await trailOfFive()
     const [edited] = await sequelize.query<{ at: string }>('SELECT "at" FROM "audit_events" WHERE "seq" = 4', { type: QueryTypes.SELECT })
 
-    await rawSql(file, `DROP TRIGGER audit_events_no_update; UPDATE audit_events SET entityId = 'exam-2' WHERE seq = 4;`)
+    await rawSql(file, `${dropTrigger('audit_events_no_update')} UPDATE audit_events SET "entityId" = 'exam-2' WHERE seq = 4;`)
     const report = await verifyAuditChain(sequelize)
 
     expect(report.firstBreak).toMatchObject({ kind: 'changed-row', seq: 4, at: new Date(edited!.at).toISOString() })
@@ -98,7 +99,10 @@ describe('the audit hash chain', () => {
     )
     const forged = chainHash(row!.prevHash, { ...row!, actorId: 'user-2' })
 
-    await rawSql(file, `DROP TRIGGER audit_events_no_update; UPDATE audit_events SET actorId = 'user-2', hash = '${forged}' WHERE seq = 2;`)
+    await rawSql(
+      file,
+      `${dropTrigger('audit_events_no_update')} UPDATE audit_events SET "actorId" = 'user-2', hash = '${forged}' WHERE seq = 2;`,
+    )
     const report = await verifyAuditChain(sequelize)
 
     expect(report.firstBreak).toMatchObject({ kind: 'bad-link', seq: 3 })
@@ -116,10 +120,11 @@ describe('the audit hash chain', () => {
   })
 })
 
-describe('npm run audit:verify', () => {
+// verify-cli.ts reads the SQLite file in DATA_DIR; on PostgreSQL the same verifier runs above, through the API's code.
+describe.runIf(isSqlite)('npm run audit:verify (on the SQLite file in DATA_DIR)', () => {
   it('when a row is gone, exits 1 and names the first broken link', async () => {
     const { dir, file } = await trailOfFive()
-    await rawSql(file, `DROP TRIGGER audit_events_no_delete; DELETE FROM audit_events WHERE seq = 2;`)
+    await rawSql(file, `${dropTrigger('audit_events_no_delete')} DELETE FROM audit_events WHERE seq = 2;`)
 
     const result = await promisify(execFile)(process.execPath, ['--import', 'tsx', 'server/audit-trail/verify-cli.ts'], {
       env: { ...process.env, DATA_DIR: dir },

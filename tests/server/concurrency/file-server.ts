@@ -1,24 +1,22 @@
-import { copyFileSync, mkdtempSync, rmSync } from 'node:fs'
+import { mkdtempSync, rmSync } from 'node:fs'
 import { createServer } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { tmpdir } from 'node:os'
 import path from 'node:path'
 import { pino } from 'pino'
-import { inject } from 'vitest'
 import { createApp } from '../../../server/app.ts'
 import { openDatabase } from '../../../server/db/sequelize.ts'
 import { initModels } from '../../../server/models/index.ts'
-import { TEST_SECRET } from '../helpers.ts'
+import { sharedTestDatabase, TEST_SECRET } from '../helpers.ts'
 
 /**
  * The app over HTTP on a free loopback port, on a database file in a temp folder (a copy of the run's migrated
- * template): unlike the in-memory databases of the other API tests, each transaction gets a connection of its own,
+ * template; on PostgreSQL a database of its own): unlike the in-memory databases of the other API tests, each transaction gets a connection of its own,
  * as in production.
  */
 export async function startFileServer() {
   const dir = mkdtempSync(path.join(tmpdir(), 'plumbline-file-server-'))
-  const file = path.join(dir, 'plumbline.sqlite')
-  copyFileSync(inject('templateDatabase'), file)
+  const file = await sharedTestDatabase(dir)
   const sequelize = openDatabase(file)
   const log = pino({ level: 'silent' })
   const app = createApp({

@@ -3,7 +3,7 @@ import type { QueryInterface } from 'sequelize'
 const at = (minutesAgo: number) => new Date(Date.UTC(2026, 11, 8, 9) - minutesAgo * 60_000)
 const stamps = (minutesAgo: number) => ({ createdAt: at(minutesAgo), updatedAt: at(minutesAgo) })
 
-function exam(id: string, examinerId: string, minutesAgo: number, extra: Record<string, unknown> = {}) {
+export function exam(id: string, examinerId: string, minutesAgo: number, extra: Record<string, unknown> = {}) {
   return {
     id,
     patientCode: 'SM-0142',

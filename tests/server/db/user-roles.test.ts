@@ -1,14 +1,15 @@
 import { QueryTypes, type Sequelize } from 'sequelize'
+import { openBlankDatabase } from '../helpers.ts'
+import { columnNames, tableNames } from './schema-snapshot.ts'
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import { createMigrator, migrationNames } from '../../../server/db/migrator.ts'
-import { openDatabase } from '../../../server/db/sequelize.ts'
 import { initModels, UserModel, UserRoleModel, withRole } from '../../../server/models/index.ts'
 
 const USER_ROLES = '2026.12.08T10.00.00.user-roles'
 
 let db: Sequelize
-beforeEach(() => {
-  db = openDatabase(':memory:')
+beforeEach(async () => {
+  db = await openBlankDatabase()
 })
 afterEach(() => db.close())
 
@@ -35,14 +36,14 @@ describe(`migration ${USER_ROLES}`, () => {
 
     await migrator.up({ to: USER_ROLES })
     const rows = await select(`SELECT "userId", "role" FROM "user_roles" ORDER BY "userId", "role"`)
-    const columns = await select<{ name: string }>(`PRAGMA table_info("users")`)
+    const columns = await columnNames(db, 'users')
     await migrator.down({ to: USER_ROLES })
 
     expect(rows).toEqual([
       { userId: 'both', role: 'attending' },
       { userId: 'both', role: 'resident' },
     ])
-    expect(columns.map((c) => c.name)).not.toContain('roles')
+    expect(columns).not.toContain('roles')
     expect(await select(`SELECT "id", "roles" FROM "users" ORDER BY "id"`)).toEqual([
       { id: 'both', roles: '["resident","attending"]' },
       { id: 'none', roles: '[]' },
@@ -57,7 +58,7 @@ describe(`migration ${USER_ROLES}`, () => {
 
     expect(String((failure as Error).cause)).toContain('users.roles of account odd is ["superuser"]; a role is one of resident')
     expect(await select(`SELECT "roles" FROM "users"`)).toEqual([{ roles: '["superuser"]' }])
-    expect(await select(`SELECT "name" FROM "sqlite_master" WHERE "tbl_name" = 'user_roles'`)).toEqual([])
+    expect(await tableNames(db)).not.toContain('user_roles')
   })
 })
 

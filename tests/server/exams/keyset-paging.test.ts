@@ -3,6 +3,7 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import { EXAM_COUNT_CAP, ExamListSchema, ExamSortSchema, type Exam, type ExamList } from '#shared/schemas/exam'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
 import { recordExam, recordSubmittedExam } from '../factories/exam.ts'
+import { columnNames } from '../db/schema-snapshot.ts'
 
 let app: Awaited<ReturnType<typeof makeTestApp>>['app']
 let sequelize: Awaited<ReturnType<typeof makeTestApp>>['sequelize']
@@ -47,8 +48,7 @@ async function changeNotes(id: string, notes: string): Promise<void> {
 
 /** Stores `count` copies of an exam under new ids, in one statement (the triggers give each its sync cursor). */
 async function copyExam(id: string, count: number): Promise<void> {
-  const [columns] = (await sequelize.query("SELECT name FROM pragma_table_info('exams')")) as [{ name: string }[], unknown]
-  const names = columns.map((c) => c.name).filter((name) => name !== 'syncSeq')
+  const names = (await columnNames(sequelize, 'exams')).filter((name) => name !== 'syncSeq')
   const values = names.map((name) => (name === 'id' ? `'copy-' || n.i` : `e."${name}"`))
   await sequelize.query(
     `WITH RECURSIVE n(i) AS (SELECT 1 UNION ALL SELECT i + 1 FROM n WHERE i < ${count})

@@ -6,12 +6,12 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import { ExamSchema, type Exam } from '#shared/schemas/exam'
 import { createApp } from '../../../server/app.ts'
 import { createMigrator } from '../../../server/db/migrator.ts'
-import { openDatabase } from '../../../server/db/sequelize.ts'
 import { sortedJson } from '../../../server/exams/exam-columns.ts'
 import { initModels } from '../../../server/models/index.ts'
 import { sha256 } from '../../../server/supervision/signed-content.ts'
 import { FIRST_RULES_ESTIMATE } from '../factories/first-rules.ts'
-import { makeCaller, makeTeam, TEST_SECRET } from '../helpers.ts'
+import { makeCaller, makeTeam, TEST_SECRET, openBlankDatabase } from '../helpers.ts'
+import { columnNames, triggerNames } from '../db/schema-snapshot.ts'
 
 const BEFORE = '2026.12.08T10.00.00.user-roles'
 const MIGRATION = '2026.12.09T09.00.00.venous-context'
@@ -46,7 +46,7 @@ let sequelize: Sequelize
 let app: ReturnType<typeof createApp>
 
 beforeEach(async () => {
-  sequelize = openDatabase(':memory:')
+  sequelize = await openBlankDatabase()
   const models = initModels(sequelize)
   await createMigrator(sequelize).up({ to: BEFORE })
   app = createApp({ sequelize, models, secret: TEST_SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false, baseUrl: 'https://plumbline.test' })
@@ -87,10 +87,7 @@ async function storeFirstReleaseExam(changes: Record<string, unknown> = {}, stat
   return { id, author }
 }
 
-async function columnsOfExams(): Promise<string[]> {
-  const [rows] = (await sequelize.query('PRAGMA table_info(exams)')) as [{ name: string }[], unknown]
-  return rows.map((r) => r.name)
-}
+const columnsOfExams = () => columnNames(sequelize, 'exams')
 
 describe(`migration ${MIGRATION}`, () => {
   it('keeps an exam of the first release readable: the estimate as saved (rules version 1), the signs as states, the signature valid', async () => {
@@ -164,12 +161,14 @@ describe(`migration ${MIGRATION}`, () => {
 
   it('adds the new columns with their defaults and leaves the stored estimate text untouched', async () => {
     const { id } = await storeFirstReleaseExam()
-    const [[before]] = (await sequelize.query(`SELECT estimate, venousSigns FROM exams WHERE id = '${id}'`)) as [Record<string, string>[], unknown]
+    const [[before]] = (await sequelize.query(`SELECT estimate, "venousSigns" FROM exams WHERE id = '${id}'`)) as [Record<string, string>[], unknown]
 
     await createMigrator(sequelize).up()
 
     const [[after]] = (await sequelize.query(`SELECT * FROM exams WHERE id = '${id}'`)) as [Record<string, unknown>[], unknown]
-    expect(after).toMatchObject({ estimate: before!.estimate, venousSigns: before!.venousSigns, venousConfirmed: 0, context: '[]' })
+    expect(after).toMatchObject({ estimate: before!.estimate, venousSigns: before!.venousSigns, context: '[]' })
+    // 0 on SQLite, false on PostgreSQL.
+    expect(Number(after!.venousConfirmed)).toBe(0)
     expect(after!.notAssessableReason).toBeNull()
     expect(after!.notAssessableText).toBeNull()
   })
@@ -186,8 +185,7 @@ describe(`migration ${MIGRATION}`, () => {
 
     for (const column of NEW_COLUMNS) expect(down).not.toContain(column)
     for (const column of NEW_COLUMNS) expect(up).toContain(column)
-    const [triggers] = (await sequelize.query("SELECT name FROM sqlite_master WHERE type = 'trigger' AND tbl_name = 'exams'")) as [{ name: string }[], unknown]
-    expect(triggers.map((t) => t.name).sort()).toEqual(['exams_sync_seq_insert', 'exams_sync_seq_update'])
+    expect(await triggerNames(sequelize, 'exams')).toEqual(expect.arrayContaining(['exams_sync_seq_insert', 'exams_sync_seq_update']))
     const [rows] = (await sequelize.query(`SELECT id FROM exams WHERE id = '${id}'`)) as [unknown[], unknown]
     expect(rows).toHaveLength(1)
   })

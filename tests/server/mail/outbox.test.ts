@@ -1,11 +1,11 @@
-import { copyFileSync, mkdtempSync, rmSync } from 'node:fs'
+import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import path from 'node:path'
-import { afterEach, describe, expect, inject, it, vi } from 'vitest'
+import { afterEach, describe, expect, it, vi } from 'vitest'
 import { writeTransaction } from '../../../server/db/transaction.ts'
 import { openDatabase } from '../../../server/db/sequelize.ts'
 import { initModels } from '../../../server/models/index.ts'
-import { openTestDatabase } from '../helpers.ts'
+import { openTestDatabase, sharedTestDatabase } from '../helpers.ts'
 import { captureLog } from './capture-log.ts'
 import { cleanupList, deadPort, fakeSmtp, mailerOn, makeMessage, outboxRows } from './outbox-harness.ts'
 
@@ -13,10 +13,9 @@ const cleanups = cleanupList()
 afterEach(() => cleanups.run())
 
 /** A migrated database file, and a way to open it again as a restarted server would. */
-function databaseFile() {
+async function databaseFile() {
   const dir = mkdtempSync(path.join(tmpdir(), 'plumbline-outbox-'))
-  const file = path.join(dir, 'plumbline.sqlite')
-  copyFileSync(inject('templateDatabase'), file)
+  const file = await sharedTestDatabase(dir)
   cleanups.add(() => rmSync(dir, { recursive: true, force: true }))
   return () => {
     const sequelize = openDatabase(file)
@@ -28,7 +27,7 @@ function databaseFile() {
 
 describe('the durable outbox', () => {
   it('a message queued before a restart is sent by the next server on the same database', async () => {
-    const open = databaseFile()
+    const open = await databaseFile()
     const first = open()
     const before = mailerOn(cleanups, first, await deadPort())
     await writeTransaction(first, async (transaction) => {
@@ -47,7 +46,7 @@ describe('the durable outbox', () => {
   })
 
   it('a message given up before a restart stays failed: the next server does not send it again', async () => {
-    const open = databaseFile()
+    const open = await databaseFile()
     const first = open()
     const { log, messages } = captureLog()
     const before = mailerOn(cleanups, first, await deadPort(), { log, retryDelaysMs: [0], maxAttempts: 2 })

@@ -1,17 +1,17 @@
+import type { Sequelize } from 'sequelize'
 import { QueryTypes } from 'sequelize'
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import { createMigrator, migrationNames } from '../../../server/db/migrator.ts'
-import { openDatabase } from '../../../server/db/sequelize.ts'
 import { ExamModel, initModels } from '../../../server/models/index.ts'
 import { DAY, examValues } from '../agreement/factories.ts'
-import { makeCaller, makeTeam } from '../helpers.ts'
+import { makeCaller, makeTeam, openBlankDatabase } from '../helpers.ts'
 
 const MIGRATION = '2026.12.11T11.00.00.references'
 const BEFORE = migrationNames[migrationNames.indexOf(MIGRATION) - 1]!
-let sequelize = openDatabase(':memory:')
+let sequelize: Sequelize
 
-beforeEach(() => {
-  sequelize = openDatabase(':memory:')
+beforeEach(async () => {
+  sequelize = await openBlankDatabase()
   initModels(sequelize)
 })
 

@@ -5,10 +5,9 @@ import { pino } from 'pino'
 import type { Sequelize } from 'sequelize'
 import { afterEach, describe, expect, it } from 'vitest'
 import { createApp } from '../../../server/app.ts'
-import { createMigrator } from '../../../server/db/migrator.ts'
 import { openDatabase } from '../../../server/db/sequelize.ts'
 import { AccountLinkModel, initModels } from '../../../server/models/index.ts'
-import { makeCaller, makeTeam, TEST_SECRET } from '../helpers.ts'
+import { makeCaller, makeTeam, sharedTestDatabase, TEST_SECRET } from '../helpers.ts'
 import { accountsSnapshot, fixture, SALTMARSH_TEAMS, upload } from './roster-helpers.ts'
 
 let dir: string | undefined
@@ -20,12 +19,14 @@ afterEach(async () => {
   dir = sequelize = undefined
 })
 
-/** A database file, as in production: each transaction gets its own SQLite connection (an in-memory one is shared). */
+/**
+ * A database file, as in production: each transaction gets its own SQLite connection (an in-memory one is shared); on
+ * PostgreSQL a database of its own.
+ */
 async function appOnFile() {
   dir = mkdtempSync(path.join(tmpdir(), 'plumbline-roster-'))
-  sequelize = openDatabase(path.join(dir, 'plumbline.sqlite'))
+  sequelize = openDatabase(await sharedTestDatabase(dir))
   const models = initModels(sequelize)
-  await createMigrator(sequelize).up()
   for (const name of SALTMARSH_TEAMS) await makeTeam(name)
   const deps = { sequelize, models, secret: TEST_SECRET, log: pino({ level: 'silent' }), demo: false, cookieSecure: false }
   return createApp({ ...deps, baseUrl: 'https://plumbline.test' })

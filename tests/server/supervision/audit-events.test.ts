@@ -98,7 +98,7 @@ describe('audit events of the supervision workflow', () => {
   })
 
   it.each([
-    ['UPDATE', `UPDATE audit_events SET actorId = NULL WHERE action = 'exam-countersign'`],
+    ['UPDATE', `UPDATE audit_events SET "actorId" = NULL WHERE action = 'exam-countersign'`],
     ['DELETE', `DELETE FROM audit_events WHERE action = 'exam-countersign'`],
   ])('the database refuses to %s a countersign event', async (_verb, sql) => {
     const { attending, exam } = await submittedOnWard()

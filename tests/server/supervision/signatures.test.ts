@@ -71,9 +71,9 @@ describe('the signature hash', () => {
   })
 
   it.each([
-    ['a measured height', () => `heightCm = 9`],
+    ['a measured height', () => `"heightCm" = 9`],
     ['the stored estimate', () => `estimate = replace(estimate, '"cvpCmH2O":13.7', '"cvpCmH2O":8.2')`],
-    ['the author', (otherUserId: string) => `examinerId = '${otherUserId}'`],
+    ['the author', (otherUserId: string) => `"examinerId" = '${otherUserId}'`],
     ['the version', () => `version = version + 1`],
     ['the notes', () => `notes = 'added later'`],
   ])('flags the signature invalid when %s is changed in the database behind the app', async (_what, set) => {
@@ -136,9 +136,9 @@ describe('the signatures table is append-only', () => {
   })
 
   it.each([
-    ['the printed name', `signerName = 'Someone Else'`],
-    ['the hash', `contentHash = 'abc'`],
-    ['the meaning, while superseding', `meaning = 'reviewed-re-examined', supersededAt = '2026-01-01'`],
+    ['the printed name', `"signerName" = 'Someone Else'`],
+    ['the hash', `"contentHash" = 'abc'`],
+    ['the meaning, while superseding', `meaning = 'reviewed-re-examined', "supersededAt" = '2026-01-01'`],
   ])('refuses an UPDATE of %s', async (_what, set) => {
     const { exam } = await signedOnWard()
 
@@ -153,9 +153,9 @@ describe('the signatures table is append-only', () => {
   it('allows marking a signature superseded once, and never un-marking or re-marking it', async () => {
     await signedOnWard()
 
-    const first = await failureOf(`UPDATE signatures SET supersededAt = '2026-01-01 00:00:00.000 +00:00'`)
-    const again = await failureOf(`UPDATE signatures SET supersededAt = '2026-02-01 00:00:00.000 +00:00'`)
-    const unmark = await failureOf(`UPDATE signatures SET supersededAt = NULL`)
+    const first = await failureOf(`UPDATE signatures SET "supersededAt" = '2026-01-01 00:00:00.000 +00:00'`)
+    const again = await failureOf(`UPDATE signatures SET "supersededAt" = '2026-02-01 00:00:00.000 +00:00'`)
+    const unmark = await failureOf(`UPDATE signatures SET "supersededAt" = NULL`)
 
     expect([first, again, unmark]).toEqual(['no error', expect.stringMatching(/append-only/), expect.stringMatching(/append-only/)])
   })
