@@ -25,6 +25,8 @@ export const ConfigSchema = z
       .string()
       .regex(/^postgres(?:ql)?:\/\//, 'DATABASE_URL must be a postgres:// or postgresql:// URL')
       .optional(),
+    /** Folder for exam photos; every app server mounts the same one. Default: DATA_DIR/attachments. */
+    UPLOADS_DIR: z.string().min(1).optional(),
     JWT_SECRET: z.string().min(64, 'JWT_SECRET must be at least 64 characters').optional(),
     DEMO: flag.default(true),
     COOKIE_SECURE: flag.default(true),

@@ -78,7 +78,7 @@ export async function startServer(config: Config): Promise<RunningServer> {
     mailer,
     mailbox: fakeSmtp,
     baseUrl: config.PUBLIC_URL ?? url,
-    attachmentsDir: path.join(config.DATA_DIR, 'attachments'),
+    attachmentsDir: config.UPLOADS_DIR ?? path.join(config.DATA_DIR, 'attachments'),
   })
   server.on('request', app)
   // Computes the local error term once now, so the first save does not pay for it.

@@ -18,7 +18,7 @@ export async function cappedCount(where: WhereOptions<ExamModel>): Promise<{ tot
   const sequelize = ExamModel.sequelize!
   const generator = sequelize.getQueryInterface().queryGenerator as SelectQueryGenerator
   const inner = generator.selectQuery(ExamModel.tableName, { attributes: ['id'], where, limit: EXAM_COUNT_CAP + 1 }, ExamModel)
-  const [row] = await sequelize.query<{ n: number }>(`SELECT COUNT(*) AS n FROM (${inner.replace(/;\s*$/, '')})`, {
+  const [row] = await sequelize.query<{ n: number }>(`SELECT COUNT(*) AS n FROM (${inner.replace(/;\s*$/, '')}) AS "capped"`, {
     type: QueryTypes.SELECT,
   })
   const n = row?.n ?? 0

@@ -1,24 +1,20 @@
-import { copyFileSync, mkdtempSync, rmSync } from 'node:fs'
+import { mkdtempSync, rmSync } from 'node:fs'
 import { once } from 'node:events'
 import { createServer } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { tmpdir } from 'node:os'
 import path from 'node:path'
 import { pino } from 'pino'
-import { inject, vi } from 'vitest'
-import { TEST_SECRET } from '../helpers.ts'
+import { vi } from 'vitest'
+import { sharedTestDatabase, TEST_SECRET } from '../helpers.ts'
 
 /**
- * Where the app servers of a test meet. `TEST_DATABASE_URL` names a PostgreSQL database of your own (empty or
- * migrated; the first server migrates it); without it, a copy of the run's migrated template as a SQLite file in `dir`,
- * which the servers open in WAL mode, as two processes on one machine would.
+ * Where the app servers of a test meet: in the `server-pg` project a new database on the run's PostgreSQL cluster; in
+ * the `server` project a copy of the run's migrated template as a SQLite file in `dir`, which the servers open in WAL
+ * mode, as two processes on one machine would.
  */
 export async function sharedDatabase(dir: string): Promise<string> {
-  const url = process.env.TEST_DATABASE_URL
-  if (url) return url
-  const file = path.join(dir, 'plumbline.sqlite')
-  copyFileSync(inject('templateDatabase'), file)
-  return file
+  return sharedTestDatabase(dir)
 }
 
 /** A temp folder for the shared database, removed by the returned function. */
