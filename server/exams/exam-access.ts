@@ -5,6 +5,7 @@ import type { ExamModel } from '../models/index.ts'
 import { membersOf, teamIdsOf } from '../users/team-members.ts'
 import { isAuthor } from './exam-rules.ts'
 import { blinded, blindingClause, closedRoundsExamined } from '../rounds/round-blinding.ts'
+import { whereKey } from './where-key.ts'
 
 type Where = WhereOptions<ExamModel>
 
@@ -24,6 +25,8 @@ export interface ExamScope {
    * non-drafts filed to their own teams, since the team looks after the patient together. Null: none.
    */
   care?: Where | null
+  /** Everything the scope is made of (reader, roles, teams, colleagues, rounds): equal keys, equal scopes. */
+  key: string
 }
 
 const notDraft: Where = { status: { [Op.ne]: 'draft' } }
@@ -49,12 +52,13 @@ export async function scopeOf(user: User): Promise<ExamScope> {
     care: blinded(teamCare && clinicalWhere ? { [Op.or]: [clinicalWhere, teamCare] } : clinicalWhere, blind),
     clinical: blinded(clinicalWhere, blind),
     program: blinded(programWhere, blind),
-    unblinded: readable({ clinical: clinicalWhere, program: programWhere, showsCode: () => false }),
+    unblinded: readable({ clinical: clinicalWhere, program: programWhere, showsCode: () => false, key: '' }),
     roundPeers: closedRounds.size ? { ...notDraft, roundId: { [Op.in]: [...closedRounds] } } : null,
     showsCode: (row) =>
       (recordsExams && isAuthor(row, user)) ||
       (roles.has('attending') && row.status !== 'draft' && (teamIds.has(row.teamId) || colleagues.has(row.examinerId))) ||
       (row.status !== 'draft' && !!row.roundId && closedRounds.has(row.roundId)),
+    key: whereKey([user.id, [...roles].sort(), [...teamIds].sort(), [...colleagues].sort(), [...closedRounds].sort(), blind]),
   }
 }
 

@@ -2,6 +2,7 @@ import { Op } from 'sequelize'
 import { StoredEstimateSchema, VenousSignsSchema, type Exam } from '#shared/schemas/exam'
 import { TeamModel, UserModel, type ExamModel } from '../models/index.ts'
 import { signaturesOf } from '../supervision/signatures.ts'
+import { viewKey, type PageCache } from './exam-caches.ts'
 import { storedInput } from './exam-columns.ts'
 
 const isCurrentEstimate = (value: unknown) => (value as { rulesVersion?: unknown } | null)?.rulesVersion === 2
@@ -51,10 +52,10 @@ function examOf(row: ExamModel, code: string, names: { examiner: string; team: s
 }
 
 /**
- * A page of rows in the API's exam shape, as `present` (exam-record.ts) builds one exam, for lists: names and verified
+ * Rows in the API's exam shape, as `present` (exam-record.ts) builds one exam, for lists: names and verified
  * signatures in one query each for the whole page, and the stored record and estimate sent as saved, not parsed again.
  */
-export async function presentPage(rows: ExamModel[], codeOf: (row: ExamModel) => string): Promise<Exam[]> {
+async function buildPage(rows: ExamModel[], codeOf: (row: ExamModel) => string): Promise<Exam[]> {
   if (!rows.length) return []
   const [users, teams, signatures] = await Promise.all([
     UserModel.findAll({
@@ -70,5 +71,28 @@ export async function presentPage(rows: ExamModel[], codeOf: (row: ExamModel) =>
   return rows.map((row) => {
     const names = { examiner: userNames.get(row.examinerId) ?? '', team: teamNames.get(row.teamId) ?? '' }
     return examOf(row, codeOf(row), names, signatures.get(row.id) ?? [])
+  })
+}
+
+// A signature with the attending's reading shows another exam, whose changes do not move this one's counter.
+const cacheable = (exam: Exam) => !exam.signatures?.some((s) => s.attendingReading)
+
+/**
+ * A page of rows in the API's exam shape, as `present` (exam-record.ts) builds one exam. With a cache, rows whose
+ * view is kept are not built again; only rows read fresh from the database may be passed with one, as a row saved
+ * since it was read carries a stale change counter.
+ */
+export async function presentPage(rows: ExamModel[], codeOf: (row: ExamModel) => string, cache?: PageCache): Promise<Exam[]> {
+  if (!cache) return buildPage(rows, codeOf)
+  const keys = rows.map((row) => (row.syncSeq == null ? null : viewKey(row, codeOf(row) !== row.patientCode, cache.context)))
+  const kept = keys.map((key) => (key === null ? undefined : cache.views.get(key)))
+  const built = await buildPage(rows.filter((_, i) => !kept[i]), codeOf)
+  const byId = new Map(built.map((exam) => [exam.id, exam]))
+  return rows.map((row, i) => {
+    if (kept[i]) return kept[i]
+    const exam = byId.get(row.id)!
+    const key = keys[i]
+    if (key && cacheable(exam)) cache.views.set(key, exam)
+    return exam
   })
 }

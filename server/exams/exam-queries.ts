@@ -8,6 +8,7 @@ import { present } from './exam-record.ts'
 import { blindedEntryError } from '../rounds/round-blinding.ts'
 import { cappedCount } from './exam-count.ts'
 import { presentPage } from './exam-page.ts'
+import type { PageCache } from './exam-caches.ts'
 import { afterCursor, cursorAfter, decodeCursor, orderOf } from './exam-keyset.ts'
 
 export interface Viewer {
@@ -88,13 +89,13 @@ async function pageStart(where: WhereOptions<ExamModel>, query: ExamListQuery) {
  * A page of the log. Counted once, on a page asked for by number; a cursor carries that count on, so deep pages cost
  * one index range each (keyset paging), and an exam added or changed meanwhile never shifts the pages after it.
  */
-export async function listExams(viewer: Viewer, query: ExamListQuery): Promise<ExamList> {
-  const scope = await scopeOf(viewer.user)
+export async function listExams(viewer: Viewer, query: ExamListQuery, read?: { scope: ExamScope; cache: PageCache }): Promise<ExamList> {
+  const scope = read?.scope ?? (await scopeOf(viewer.user))
   const start = await pageStart(logWhere(scope, query), query)
   const rows = await ExamModel.findAll({ where: start.where, order: orderOf(query), limit: query.pageSize + 1, offset: start.offset })
   const page = rows.slice(0, query.pageSize)
   const last = page.at(-1)
   const nextCursor = rows.length > query.pageSize && last ? cursorAfter(last, query, start.total, start.capped) : null
-  const exams = await presentPage(page, codeFor(scope, viewer))
+  const exams = await presentPage(page, codeFor(scope, viewer), read?.cache)
   return { exams, total: start.total, totalCapped: start.capped, page: query.page, pageSize: query.pageSize, nextCursor }
 }

@@ -6,6 +6,8 @@ import { currentUser, requireRole } from '../middleware/auth.ts'
 import { requestNotifier, type SupervisionRouterOptions } from '../supervision/supervision.routes.ts'
 import { patientCodeMask } from './exam-access.ts'
 import { getExam, listExams, type Viewer } from './exam-queries.ts'
+import { examRead } from './exam-answers.ts'
+import { examCaches } from './exam-caches.ts'
 import { createExam, submitExam, updateExam } from './exams.service.ts'
 
 const IdParamsSchema = z.object({ id: z.string() })
@@ -24,7 +26,10 @@ export function examsRouter(options: SupervisionRouterOptions): Router {
   router.post('/estimate', readers, async (req, res) =>
     res.json(estimateWith(ExamFindingsSchema.parse(req.body), await estimateContext())),
   )
-  router.get('/exams', readers, async (req, res) => res.json(await listExams(viewer(res), ExamListQuerySchema.parse(req.query))))
+  router.get('/exams', readers, async (req, res) => {
+    const [query, read] = [ExamListQuerySchema.parse(req.query), await examRead(viewer(res))]
+    await examCaches().answers.send(req, res, read.keyOf('exams', query), () => listExams(viewer(res), query, read))
+  })
   router.get('/exams/:id', async (req, res) => res.json(await getExam(viewer(res), idOf(req))))
   router.post('/exams', authors, async (req, res) => {
     const { exam, created } = await createExam(currentUser(res), ExamInputSchema.parse(req.body))

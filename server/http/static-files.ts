@@ -14,9 +14,12 @@ export function cacheControlFor(relativePath: string): string {
   return parts[0] === 'assets' && parts.length > 1 ? IMMUTABLE : REVALIDATE
 }
 
+const READS = new Set(['GET', 'HEAD'])
+
 /**
  * Serves the built client: the `.br` (preferred) or `.gz` file written beside the original at build time when the
- * client accepts it, else the file itself; unknown non-API GETs get index.html, for the client's router.
+ * client accepts it, else the file itself; unknown non-API GETs (and HEADs, which answer as GET would, without the body:
+ * RFC 9110 9.3.2) get index.html, for the client's router.
  */
 export function serveClient(app: Express, dir: string): void {
   const files = expressStaticGzip(dir, {
@@ -30,7 +33,7 @@ export function serveClient(app: Express, dir: string): void {
   })
   app.use(files)
   app.use((req, res, next) => {
-    if (req.method !== 'GET' || req.path.startsWith('/api')) return next()
+    if (!READS.has(req.method) || req.path.startsWith('/api')) return next()
     req.url = '/index.html'
     files(req, res, next)
   })

@@ -3,6 +3,7 @@ import type { SyncPullQuery, SyncPullResponse, SyncRemoved } from '#shared/schem
 import { readable, scopeOf, type ExamScope } from '../exams/exam-access.ts'
 import type { Viewer } from '../exams/exam-queries.ts'
 import { presentPage } from '../exams/exam-page.ts'
+import type { ExamRead } from '../exams/exam-answers.ts'
 import { ExamModel } from '../models/index.ts'
 
 type Where = WhereOptions<ExamModel>
@@ -57,8 +58,8 @@ async function changedAfter(query: SyncPullQuery, where: Where): Promise<ExamMod
  * and may no longer read, so the device drops its copy. The cursor is the server's change counter, never a client
  * clock; each change is in exactly one page, in one of the two lists.
  */
-export async function pullChanges(viewer: Viewer, query: SyncPullQuery): Promise<SyncPullResponse> {
-  const scope = await scopeOf(viewer.user)
+export async function pullChanges(viewer: Viewer, query: SyncPullQuery, read?: Omit<ExamRead, 'keyOf'>): Promise<SyncPullResponse> {
+  const scope = read?.scope ?? (await scopeOf(viewer.user))
   const where = readable(scope)
   if (!where) return { exams: [], removed: [], cursor: query.cursor, more: false }
   const rows = await changedAfter(query, where)
@@ -68,6 +69,7 @@ export async function pullChanges(viewer: Viewer, query: SyncPullQuery): Promise
     .filter((row) => !visible.has(row.id) && formerReader(scope, row))
     .map((row) => ({ id: row.id, syncSeq: row.syncSeq! }))
   const shown = page.filter((row) => visible.has(row.id))
-  const exams = await presentPage(shown, (row) => (scope.showsCode(row) ? row.patientCode : viewer.mask(row.patientCode)))
+  const codeOf = (row: ExamModel) => (scope.showsCode(row) ? row.patientCode : viewer.mask(row.patientCode))
+  const exams = await presentPage(shown, codeOf, read?.cache)
   return { exams, removed, cursor: page.at(-1)?.syncSeq ?? query.cursor, more: rows.length > query.limit }
 }

@@ -3,6 +3,8 @@ import { SyncPullQuerySchema } from '#shared/schemas/sync'
 import { patientCodeMask } from '../exams/exam-access.ts'
 import { currentUser, requireRole } from '../middleware/auth.ts'
 import { pullChanges } from './sync-pull.service.ts'
+import { examRead } from '../exams/exam-answers.ts'
+import { examCaches } from '../exams/exam-caches.ts'
 import { pushChanges } from './sync-push.service.ts'
 import { SyncBatchSchema } from './sync-items.ts'
 
@@ -14,8 +16,10 @@ export function syncRouter(options: { secret: string }): Router {
   router.post('/push', requireRole('resident', 'attending'), async (req, res) =>
     res.json({ results: await pushChanges(currentUser(res), SyncBatchSchema.parse(req.body).changes) }),
   )
-  router.get('/pull', requireRole('resident', 'attending', 'educator'), async (req, res) =>
-    res.json(await pullChanges({ user: currentUser(res), mask }, SyncPullQuerySchema.parse(req.query))),
-  )
+  router.get('/pull', requireRole('resident', 'attending', 'educator'), async (req, res) => {
+    const [query, viewer] = [SyncPullQuerySchema.parse(req.query), { user: currentUser(res), mask }]
+    const read = await examRead(viewer)
+    await examCaches().answers.send(req, res, read.keyOf('pull', query), () => pullChanges(viewer, query, read))
+  })
   return router
 }

@@ -58,4 +58,30 @@ describe('compression of API answers', () => {
 
     expect(res.headers['cache-control']).toBe('no-store')
   })
+
+  it('when the client refuses brotli (br;q=0), answers in gzip', async () => {
+    const res = await examLog('br;q=0, gzip')
+
+    expect(res.headers['content-encoding']).toBe('gzip')
+  })
+
+  it('sends one stored answer in each encoding asked for, the same content each time', async () => {
+    const [br, gzip, plain] = [await examLog('br'), await examLog('gzip'), await examLog('identity')]
+
+    expect([br, gzip, plain].map((r) => r.headers['content-encoding'])).toEqual(['br', 'gzip', undefined])
+    expect(br.body).toEqual(plain.body)
+    expect(gzip.body).toEqual(plain.body)
+    expect(plain.body.exams).toHaveLength(3)
+  })
+
+  it('compresses the sync pull as the client accepts, with the same content as uncompressed', async () => {
+    const pull = (encoding: string) => request(app).get('/api/sync/pull?cursor=0').set('Authorization', auth).set('Accept-Encoding', encoding)
+
+    const [br, plain] = [await pull('gzip, br'), await pull('identity')]
+
+    expect(br.headers['content-encoding']).toBe('br')
+    expect(br.headers.vary).toMatch(/Accept-Encoding/i)
+    expect(br.body).toEqual(plain.body)
+    expect(plain.body.exams).toHaveLength(3)
+  })
 })

@@ -90,4 +90,16 @@ describe('serving the built client', () => {
     expect(res.headers['content-type']).toMatch(/json/)
     expect(res.body.error.code).toEqual(expect.any(String))
   })
+
+  it.each(['/', '/exams/some-id'])('answers HEAD %s as GET would, with the headers of index.html and no body', async (route) => {
+    const get = await request(app).get(route).set('Accept-Encoding', 'identity')
+
+    const head = await request(app).head(route).set('Accept-Encoding', 'identity')
+
+    expect(head.status).toBe(200)
+    expect(head.headers['content-type']).toBe(get.headers['content-type'])
+    expect(head.headers['content-length']).toBe(String(INDEX.length))
+    expect(head.headers['cache-control']).toBe('no-cache')
+    expect(head.text ?? '').toBe('')
+  })
 })
