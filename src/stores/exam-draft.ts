@@ -1,12 +1,13 @@
 import { defineStore } from 'pinia'
-import { computed, ref } from 'vue'
+import { computed, ref, watch } from 'vue'
 import type { TeamRef } from '#shared/schemas/user'
 import type { SyncItemError } from '#shared/schemas/sync'
 import { newDraft, type DraftFields, type DraftRow } from '@/db/draft-schema'
 import { listDrafts, loadDraft, saveDraft } from '@/db/drafts'
 import { draftFromExam } from '@/db/exam-drafts'
 import { loadLocalExam } from '@/db/local-exams'
-import { queueAndSync } from './exam-save'
+import { lastChoices, rememberChoices } from '@/utils/bedside-memory'
+import { queueAndSync, submitLater, submitSaved, submitWaiting } from './exam-save'
 import { defaultOffsetModelInUse, estimateBasisInUse } from './settings'
 import { useSessionStore } from './session'
 import { useSyncStore } from './sync'
@@ -20,6 +21,9 @@ export type SaveOutcome =
   | { kind: 'conflict' }
   | { kind: 'invalid'; step: number }
   | { kind: 'failed'; message: string }
+
+/** A save followed by a submission: submitted now, or once the save reaches the server. */
+export type SubmitOutcome = Exclude<SaveOutcome, { kind: 'saved' }> | { kind: 'submitted'; examId: string } | { kind: 'submit-later' }
 
 const EDITABLE = new Set(['draft', 'returned'])
 
@@ -128,7 +132,7 @@ export const useExamDraftStore = defineStore('exam-draft', () => {
   }
 
   /** A change the server refused: back to editing, with its field errors on their step. */
-  async function refused(error: SyncItemError | null): Promise<SaveOutcome> {
+  async function refused(error: SyncItemError | null): Promise<Extract<SaveOutcome, { kind: 'invalid' | 'failed' }>> {
     draft.value!.state = 'editing'
     await flush()
     const keys = Object.keys(error?.fields ?? {})
@@ -159,9 +163,73 @@ export const useExamDraftStore = defineStore('exam-draft', () => {
     await flush()
     const saved = await queueAndSync(row, input, session.user, () => sync.syncNow())
     if (saved.kind === 'not-stored') return { kind: 'failed', message: saved.message }
+    rememberThisExam(row.fields)
     row.state = 'saved'
     return saved.kind === 'refused' ? refused(saved.error) : saved
   }
 
-  return { draft, resumed, attemptedSteps, serverErrors, step, errors, estimate, visibleErrors, stepIsValid, flush, update, startNew, resumeOrStart, open, goTo, next, saveToLog }
+  /** Remembers the team and the angle on this device for the next patient (the quick screen offers them again). */
+  function rememberThisExam(fields: DraftFields) {
+    const angle = typeof fields.inclinationDeg === 'number' ? fields.inclinationDeg : undefined
+    rememberChoices({ teamId: fields.teamId, inclinationDeg: angle })
+  }
+
+  /** Fills an untouched draft's team and angle with those last used on this device, when the user may still use them. */
+  function applyRemembered(teams: readonly TeamRef[]) {
+    const fields = draft.value?.fields
+    if (!fields || fields.patientCode || fields.inclinationDeg != null) return
+    const last = lastChoices()
+    const team = teams.find((t) => t.id === last.teamId)
+    const patch: Partial<DraftFields> = {}
+    if (team && !fields.teamId) patch.teamId = team.id
+    if (last.inclinationDeg !== undefined) Object.assign(patch, { inclinationDeg: last.inclinationDeg, inclinationSource: 'entered' })
+    if (Object.keys(patch).length) update(patch)
+  }
+
+  /**
+   * Saves the exam as "Save to my log" does (device, outbox, sync), then sends it for countersignature. Offline, the
+   * submission waits for the save to reach the server; a submit check the server refuses comes back as a field error.
+   */
+  async function saveAndSubmit(): Promise<SubmitOutcome> {
+    const saved = await saveToLog()
+    if (saved.kind !== 'saved' && saved.kind !== 'kept-offline') return saved
+    const later = { examId: draft.value!.id, authorId: session.user!.id }
+    const result = saved.kind === 'saved' ? await submitSaved(saved.examId) : ({ kind: 'unreachable' } as const)
+    if (result.kind === 'submitted') return { kind: 'submitted', examId: later.examId }
+    if (result.kind === 'unreachable') {
+      submitLater(later)
+      return { kind: 'submit-later' }
+    }
+    return refused({ code: 'submit-refused', message: result.message, fields: result.fields })
+  }
+
+  // Exams submitted offline go once their save has synced; a sync after a reload starts them as well.
+  watch(
+    () => [sync.lastSyncAt, session.user?.id] as const,
+    ([, userId]) => void (userId && submitWaiting(userId)),
+    { immediate: true },
+  )
+
+  return {
+    draft,
+    resumed,
+    attemptedSteps,
+    serverErrors,
+    step,
+    errors,
+    estimate,
+    visibleErrors,
+    stepIsValid,
+    flush,
+    update,
+    startNew,
+    resumeOrStart,
+    open,
+    goTo,
+    next,
+    saveToLog,
+    saveAndSubmit,
+    applyRemembered,
+    rememberThisExam,
+  }
 })

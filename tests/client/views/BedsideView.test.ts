@@ -11,7 +11,7 @@ import { useSessionStore } from '@/stores/session'
 import { makeDraft } from '../factories/draft'
 import { makeUser } from '../factories/user'
 
-vi.mock('@/api/exams', () => ({ createExam: vi.fn() }))
+vi.mock('@/api/exams', () => ({ createExam: vi.fn(), submitExam: vi.fn() }))
 
 let pinia: Pinia
 
@@ -22,7 +22,9 @@ async function openAt(path: string) {
   // Rendered through a router-view, as the app does, so the view's leave guard has its route record.
   const Host = defineComponent({ render: () => h(RouterView) })
   const wrapper = mount(Host, { global: { plugins: [createVuetify(), router, pinia] } })
-  await vi.waitFor(() => expect(wrapper.find('[data-testid="step-header"], [data-testid="draft-missing"]').exists()).toBe(true))
+  await vi.waitFor(() =>
+    expect(wrapper.find('[data-testid="step-header"], [data-testid="quick-exam"], [data-testid="draft-missing"]').exists()).toBe(true),
+  )
   return { router, wrapper }
 }
 
@@ -36,6 +38,7 @@ describe('BedsideView', () => {
     pinia = createPinia()
     setActivePinia(pinia)
     await db.drafts.clear()
+    localStorage.clear()
   })
 
   it('with no draft on this device, starts a new exam and puts its id in the address', async () => {
@@ -95,5 +98,29 @@ describe('BedsideView', () => {
     const { wrapper } = await openAt('/record/elsewhere')
 
     expect(wrapper.find('[data-testid="draft-missing"]').text()).toContain('not on this device')
+  })
+
+  it('with ?mode=quick, shows the quick screen on the same draft, and keeps the mode in the address', async () => {
+    await saveDraft(makeDraft({ patientCode: 'SM-0142' }, { id: 'latest' }))
+
+    const { router, wrapper } = await openAt('/record?mode=quick')
+
+    expect(wrapper.find('[data-testid="quick-exam"]').exists()).toBe(true)
+    expect(wrapper.find<HTMLInputElement>('[data-testid="patient-code"] input').element.value).toBe('SM-0142')
+    await vi.waitFor(() => expect(router.currentRoute.value).toMatchObject({ params: { draftId: 'latest' }, query: { mode: 'quick' } }))
+  })
+
+  it('switching mode keeps every field, and the mode chosen opens next time the address names none', async () => {
+    await saveDraft(makeDraft({ patientCode: 'SM-0142', inclinationDeg: 40 }, { id: 'latest' }))
+    const { wrapper } = await openAt('/record/latest')
+    expect(wrapper.find('[data-testid="step-header"]').exists()).toBe(true)
+
+    await wrapper.find('[data-testid="record-mode-quick"]').trigger('click')
+
+    await vi.waitFor(() => expect(wrapper.find('[data-testid="quick-exam"]').exists()).toBe(true))
+    expect(wrapper.find<HTMLInputElement>('[data-testid="inclination-input"] input').element.value).toBe('40')
+    wrapper.unmount()
+    const again = await openAt('/record/latest')
+    expect(again.wrapper.find('[data-testid="quick-exam"]').exists()).toBe(true)
   })
 })

@@ -12,6 +12,15 @@ describe('BedsideInclinationField', () => {
     delete (window as { DeviceOrientationEvent?: unknown }).DeviceOrientationEvent
   })
 
+  it('while the angle is empty, the slider shows no position; once typed, it shows one', async () => {
+    const wrapper = mountField(null)
+
+    const slider = () => wrapper.find('[data-testid="inclination-slider"]')
+    expect(slider().classes()).toContain('inclination-slider--empty')
+    await wrapper.setProps({ inclinationDeg: 0 })
+    expect(slider().classes()).not.toContain('inclination-slider--empty')
+  })
+
   it('typing an angle records it as entered', async () => {
     const wrapper = mountField()
 

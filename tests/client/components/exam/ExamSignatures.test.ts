@@ -1,16 +1,33 @@
-import { describe, expect, it } from 'vitest'
+import { beforeEach, describe, expect, it } from 'vitest'
 import { mount } from '@vue/test-utils'
+import { createPinia, setActivePinia } from 'pinia'
 import { createVuetify } from 'vuetify'
 import type { Signature } from '#shared/schemas/signature'
 import ExamSignatures from '@/components/exam/ExamSignatures.vue'
 import { FEEDBACK_LABEL } from '#shared/domain/feedback-text'
 import { makeSignature } from '../../factories/signature'
+import { makeUser } from '../../factories/user'
+import { useSessionStore } from '@/stores/session'
 
 function mountSignatures(signatures: Signature[]) {
   return mount(ExamSignatures, { props: { signatures }, global: { plugins: [createVuetify()] } })
 }
 
 describe('ExamSignatures', () => {
+  beforeEach(() => setActivePinia(createPinia()))
+
+  it("when the signed-in user made the countersignature, says 'Countersigned by you'", () => {
+    useSessionStore().user = makeUser({ id: 'att-7', roles: ['attending'] })
+
+    const wrapper = mountSignatures([
+      makeSignature({ id: 'sig-mine', signerId: 'att-7' }),
+      makeSignature({ id: 'sig-other', signerId: 'att-8' }),
+    ])
+
+    expect(wrapper.find('[data-testid="signature-sig-mine"] [data-testid="signature-by-you"]').text()).toBe('Countersigned by you')
+    expect(wrapper.find('[data-testid="signature-sig-other"] [data-testid="signature-by-you"]').exists()).toBe(false)
+  })
+
   it("shows the signer's printed name, the date and time in the signing zone, and the meaning in words", () => {
     const wrapper = mountSignatures([makeSignature()])
 
@@ -26,7 +43,12 @@ describe('ExamSignatures', () => {
   })
 
   it('marks a signature of an amended version as superseded, with when, and keeps showing it', () => {
-    const old = makeSignature({ id: 'sig-old', superseded: true, supersededAt: '2026-07-15T08:00:00.000+01:00', meaning: 'reviewed-re-examined' })
+    const old = makeSignature({
+      id: 'sig-old',
+      superseded: true,
+      supersededAt: '2026-07-15T08:00:00.000+01:00',
+      meaning: 'reviewed-re-examined',
+    })
     const current = makeSignature({ id: 'sig-new', examVersion: 3 })
 
     const wrapper = mountSignatures([old, current])
@@ -55,7 +77,14 @@ describe('ExamSignatures', () => {
   it("shows the resident the attending's reading, the difference in words and the feedback", () => {
     const signature = makeSignature({
       meaning: 'reviewed-re-examined',
-      attendingReading: { examId: 'att-exam', heightCm: 2, inclinationDeg: 45, examinedAt: '2026-07-14T08:20:00.000Z', cvpCmH2O: 11.1, differenceCmH2O: 2.6 },
+      attendingReading: {
+        examId: 'att-exam',
+        heightCm: 2,
+        inclinationDeg: 45,
+        examinedAt: '2026-07-14T08:20:00.000Z',
+        cvpCmH2O: 11.1,
+        differenceCmH2O: 2.6,
+      },
       feedback: ['read-peak-not-mean', 'other'],
       feedbackText: 'Use the bed lever, not pillows.',
     })
@@ -72,7 +101,14 @@ describe('ExamSignatures', () => {
   it('says there is no difference to take when one reading is a bound', () => {
     const signature = makeSignature({
       meaning: 'reviewed-re-examined',
-      attendingReading: { examId: 'att-exam', heightCm: 2, inclinationDeg: 45, examinedAt: '2026-07-14T08:20:00.000Z', cvpCmH2O: 11.1, differenceCmH2O: null },
+      attendingReading: {
+        examId: 'att-exam',
+        heightCm: 2,
+        inclinationDeg: 45,
+        examinedAt: '2026-07-14T08:20:00.000Z',
+        cvpCmH2O: 11.1,
+        differenceCmH2O: null,
+      },
     })
 
     const wrapper = mountSignatures([signature])
