@@ -1,5 +1,5 @@
 import { defineStore } from 'pinia'
-import { computed, ref, watch } from 'vue'
+import { computed, ref } from 'vue'
 import type { TeamRef } from '#shared/schemas/user'
 import type { SyncItemError } from '#shared/schemas/sync'
 import { newDraft, type DraftFields, type DraftRow } from '@/db/draft-schema'
@@ -7,7 +7,7 @@ import { listDrafts, loadDraft, saveDraft } from '@/db/drafts'
 import { draftFromExam } from '@/db/exam-drafts'
 import { loadLocalExam } from '@/db/local-exams'
 import { lastChoices, rememberChoices } from '@/utils/bedside-memory'
-import { queueAndSync, submitLater, submitSaved, submitWaiting } from './exam-save'
+import { queueAndSync, submitLater, submitSaved } from './exam-save'
 import { defaultOffsetModelInUse, estimateBasisInUse } from './settings'
 import { useSessionStore } from './session'
 import { useSyncStore } from './sync'
@@ -202,13 +202,6 @@ export const useExamDraftStore = defineStore('exam-draft', () => {
     }
     return refused({ code: 'submit-refused', message: result.message, fields: result.fields })
   }
-
-  // Exams submitted offline go once their save has synced; a sync after a reload starts them as well.
-  watch(
-    () => [sync.lastSyncAt, session.user?.id] as const,
-    ([, userId]) => void (userId && submitWaiting(userId)),
-    { immediate: true },
-  )
 
   return {
     draft,

@@ -7,6 +7,7 @@ import { loadCursor } from '@/db/meta'
 import { nextBatch } from '@/db/outbox'
 import { recordFailure, settleResults } from '@/db/outbox-settle'
 import type { OutboxItem } from '@/db/sync-schema'
+import { submitWaiting } from './exam-save'
 import type { RenewOutcome } from './session'
 
 // Under the server's 256 kB body limit, with room for the envelope.
@@ -64,10 +65,16 @@ export async function pullInto(account: SyncAccount): Promise<ReadableError | nu
   }
 }
 
-/** Push, then pull: the pull then brings the server's copies of what was just accepted. */
+/**
+ * Push, then pull: the pull then brings the server's copies of what was just accepted. Between the two, exams saved with
+ * "Save and submit" while offline are submitted once their save has left the outbox, whatever page is open.
+ */
 export async function syncAccount(account: SyncAccount): Promise<ReadableError | null> {
+  const pushed = await pushOutbox(account)
+  if (pushed) return pushed
+  if (account.isCurrent()) await submitWaiting(account.id)
   // Photos follow once their exam is on the server; a refused one stays on the device (issue 7).
-  return (await pushOutbox(account)) ?? (await pullInto(account)) ?? (await uploadPendingAttachments(account))
+  return (await pullInto(account)) ?? (await uploadPendingAttachments(account))
 }
 
 const SIGNED_OUT: ReadableError = { status: 401, code: 'not-signed-in', message: 'Sign in again to send your exams.', fields: {} }

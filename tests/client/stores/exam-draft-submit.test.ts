@@ -8,6 +8,7 @@ import { useSessionStore } from '@/stores/session'
 import { useSyncStore } from '@/stores/sync'
 import { useSettingsStore } from '@/stores/settings'
 import { lastChoices, pendingSubmits } from '@/utils/bedside-memory'
+import { submitLater } from '@/stores/exam-save'
 import * as sync from '@/api/sync'
 import * as exams from '@/api/exams'
 import { WORKED_EXAMPLE } from '../factories/draft'
@@ -89,6 +90,17 @@ describe('exam draft store: save and submit', () => {
 
     await vi.waitFor(() => expect(exams.submitExam).toHaveBeenCalledWith(store.draft!.id))
     await vi.waitFor(() => expect(pendingSubmits()).toEqual([]))
+  })
+
+  it('after a reload, a sync submits the exams left waiting without the recording page being opened', async () => {
+    submitLater({ examId: 'e-waiting', authorId: 'u-1' })
+    submitLater({ examId: 'e-of-someone-else', authorId: 'u-2' })
+
+    await useSyncStore().syncNow()
+
+    expect(exams.submitExam).toHaveBeenCalledTimes(1)
+    expect(exams.submitExam).toHaveBeenCalledWith('e-waiting')
+    expect(pendingSubmits()).toEqual([{ examId: 'e-of-someone-else', authorId: 'u-2' }])
   })
 
   it('when the server refuses the submission on a field, opens the exam again with the error on that field', async () => {
