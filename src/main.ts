@@ -1,4 +1,5 @@
 import './plugins/zod-jitless'
+import './styles/links.css'
 import { createApp } from 'vue'
 import App from './App.vue'
 import { registerPlugins } from './plugins'

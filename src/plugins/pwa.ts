@@ -3,6 +3,7 @@ import type { Router } from 'vue-router'
 import type { RegisterSWOptions } from 'vite-plugin-pwa/types'
 import { createInstallPrompt, installPromptKey } from '@/components/pwa/install-prompt'
 import { askForPersistentStorage } from '@/composables/storage-status'
+import { whenIdle } from './idle'
 
 type RegisterSW = (options: RegisterSWOptions) => (reloadPage?: boolean) => Promise<void>
 
@@ -82,8 +83,10 @@ export function installPwa(app: App, router: Router) {
   app.provide(installPromptKey, createInstallPrompt(window))
   if (import.meta.env.PROD && 'serviceWorker' in navigator) {
     const register = () => appUpdate.start().catch((error) => console.warn('Service worker registration failed', error))
-    // a failed first navigation is the case where the offline shell helps most: register anyway
-    void router.isReady().then(register, register)
+    // Its precache download (every route chunk) waits until the first page is on screen and the browser is idle. A
+    // failed first navigation is the case where the offline shell helps most: register anyway.
+    const registerWhenIdle = () => whenIdle(register)
+    void router.isReady().then(registerWhenIdle, registerWhenIdle)
   }
   const stopAsking = router.afterEach((to) => {
     if (to.meta.public) return

@@ -86,16 +86,42 @@ describe('the exam log in Chromium', () => {
     await context.close()
   })
 
-  it('on a 360 px phone, the log fits the screen and still shows the CVP with its band', async () => {
-    const context = await browser.newContext({ viewport: { width: 360, height: 740 }, isMobile: true, hasTouch: true })
+  it('the patient code in the table is a link in the theme primary, not the browser blue', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 800 } })
     const page = await signedInPage(context)
 
     await page.goto(`${server.url}/exams`)
-    const row = page.getByTestId('exam-table').locator('tbody tr', { hasText: patientCode })
-    await expect.poll(() => row.isVisible(), WAIT).toBe(true)
+    const link = page.getByTestId('exam-table').locator('tbody tr a', { hasText: patientCode })
+    await expect.poll(() => link.isVisible(), WAIT).toBe(true)
 
-    expect(await row.textContent()).toContain(`13.7 (${band})`)
-    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(360)
+    // plumblineLight's primary, #1F5C63
+    expect(await link.evaluate((a) => getComputedStyle(a).color)).toBe('rgb(31, 92, 99)')
+    await context.close()
+  })
+
+  it('on a 390 × 844 phone, shows at least six compact rows on one screen, each with the CVP and its band', async () => {
+    const height = 844
+    const context = await browser.newContext({ viewport: { width: 390, height }, isMobile: true, hasTouch: true })
+    const page = await signedInPage(context)
+
+    await page.goto(`${server.url}/exams`)
+    const rows = page.getByTestId('exam-list').locator('li[data-testid^="exam-row-"]')
+    const ours = rows.filter({ hasText: patientCode })
+    await expect.poll(() => ours.isVisible(), WAIT).toBe(true)
+    expect(await ours.getByTestId('row-cvp').textContent()).toBe('13.7')
+    expect(await ours.getByTestId('row-band').textContent()).toBe(`(95% band ${band})`)
+    expect(await page.getByTestId('exam-caution').isVisible()).toBe(true)
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390)
+    const ribbon = await page.getByTestId('demo-ribbon').boundingBox()
+    expect(ribbon?.height).toBeLessThanOrEqual(32)
+
+    // the first row just under the app bar, as far as the page scrolls
+    const bar = (await page.locator('.v-app-bar').boundingBox())!
+    const first = (await rows.first().boundingBox())!
+    await page.evaluate((by) => window.scrollBy(0, by), first.y - (bar.y + bar.height))
+    const boxes = await Promise.all((await rows.all()).map((row) => row.boundingBox()))
+    const onScreen = boxes.filter((box) => box && box.y >= bar.y + bar.height - 1 && box.y + box.height <= height)
+    expect(onScreen.length).toBeGreaterThanOrEqual(6)
     await context.close()
   })
 })

@@ -28,6 +28,10 @@ async function mountLog(roles = makeUser().roles) {
   await router.push({ name: 'exams' })
   const wrapper = mount(ExamLogView, { global: { plugins: [createVuetify(), router] }, attachTo: document.body })
   await flushPromises()
+  // the desktop table is a lazy piece of the view; a load error shows instead of it
+  const shown = () =>
+    wrapper.find('[data-testid="exam-table"], [data-testid="exam-list"]').exists() || wrapper.findAll('button').some((b) => b.text() === 'Retry')
+  await vi.waitFor(() => expect(shown()).toBe(true), { timeout: 10_000 })
   return { wrapper, router }
 }
 
@@ -261,15 +265,48 @@ describe('ExamLogView', () => {
     expect(patientHeader?.classes()).not.toContain('v-data-table__th--sortable')
   })
 
-  it('on a 360 px phone, drops the height and band columns and shows the band beside the CVP', async () => {
-    window.innerWidth = 360
-    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+  it('on a 390 px phone, lists compact rows with the estimate, its band and the status, under the caution', async () => {
+    window.innerWidth = 390
+    const exam = makeExam({ patientCode: 'SM-0142', status: 'countersigned' })
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([exam]))
 
     const { wrapper } = await mountLog()
 
-    const table = wrapper.find('[data-testid="exam-table"]')
-    expect(table.text()).not.toContain('Height (cm)')
-    expect(table.text()).toContain('13.7 (9.2–18.2)')
+    expect(wrapper.find('[data-testid="exam-table"]').exists()).toBe(false)
+    const row = wrapper.get(`[data-testid="exam-row-${exam.id}"]`)
+    expect(row.text()).toContain('SM-0142')
+    expect(row.get('[data-testid="row-cvp"]').text()).toBe('13.7')
+    expect(row.get('[data-testid="row-band"]').text()).toContain('9.2–18.2')
+    expect(row.get('[data-testid="status-countersigned"]').text()).toBe('Countersigned')
+    expect(row.get('a').attributes('href')).toBe(`/exams/${exam.id}`)
+    const caution = wrapper.get('[data-testid="exam-caution"]')
+    expect(caution.text()).toContain('Estimate from physical examination')
+    // before the list in the page, so rows arriving never move it
+    expect(caution.element.compareDocumentPosition(row.element) & Node.DOCUMENT_POSITION_FOLLOWING).toBeTruthy()
+  })
+
+  it('on a phone, the next page is asked for with the cursor of this page', async () => {
+    window.innerWidth = 390
+    vi.mocked(api.fetchExams).mockResolvedValue({ ...makeExamList([makeExam()], 60), nextCursor: 'after-page-1' })
+    const { wrapper } = await mountLog()
+
+    await wrapper.get('[data-testid="exam-list"] button[aria-label="Next page"]').trigger('click')
+    await flushPromises()
+
+    expect(lastQuery()).toMatchObject({ page: 2, cursor: 'after-page-1' })
+  })
+
+  it('on a phone while offline, still shows the device banner and the rows kept on this device', async () => {
+    window.innerWidth = 390
+    await clearDevice()
+    const pulled = makeExam({ patientCode: 'SM-0311', status: 'submitted' })
+    await db.exams.put({ ...pulled, ownerId: 'u-1' })
+    vi.mocked(api.fetchExams).mockRejectedValue(new TypeError('Failed to fetch'))
+
+    const { wrapper } = await mountLog()
+
+    await vi.waitFor(() => expect(wrapper.find('[data-testid="log-from-device"]').exists()).toBe(true))
+    expect(wrapper.get(`[data-testid="exam-row-${pulled.id}"]`).text()).toContain('SM-0311')
   })
 
   it('lists the author\'s returned exams with the attending\'s comment above the log', async () => {
@@ -278,6 +315,7 @@ describe('ExamLogView', () => {
     vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([returned]))
 
     const { wrapper } = await mountLog()
+    await vi.waitFor(() => expect(wrapper.find('[data-testid="returned-exams"]').exists()).toBe(true))
 
     const banner = wrapper.find('[data-testid="returned-exams"]')
     expect(supervision.fetchReturnedExams).toHaveBeenCalledWith('u-1')

@@ -1,0 +1,17 @@
+import type { Router } from 'vue-router'
+
+type Loader = () => Promise<unknown>
+
+/**
+ * Starts loading the lazy view of the address the app opens at (its chunk, the chunks it imports and their
+ * stylesheets, through Vite's preload helper) alongside the session check the router's guard waits for, instead of
+ * after it.
+ */
+export function preloadOpeningRoute(router: Router, href = window.location.href) {
+  const url = new URL(href)
+  for (const record of router.resolve(url.pathname + url.search).matched) {
+    const view = record.components?.default
+    // a lazy view is a bare function; a loaded component is an object
+    if (typeof view === 'function' && !('__vccOpts' in view) && !('props' in view)) (view as Loader)().catch(() => undefined)
+  }
+}
