@@ -129,13 +129,19 @@ const app: ViteUserConfig = {
           { src: 'pwa-512x512.png', sizes: '512x512', type: 'image/png', purpose: 'any' },
           { src: 'maskable-icon-512x512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
         ],
+        // Shown by browsers that offer a richer install dialog; the same pictures illustrate the README.
+        screenshots: [
+          { src: 'screenshots/quick-exam.png', sizes: '780x1688', type: 'image/png', form_factor: 'narrow', label: 'Quick exam at the bedside' },
+          { src: 'screenshots/home.png', sizes: '780x1688', type: 'image/png', form_factor: 'narrow', label: 'Home: what waits for you' },
+          { src: 'screenshots/exam-log.png', sizes: '780x1688', type: 'image/png', form_factor: 'narrow', label: 'Exam log on a phone' },
+        ],
       },
       includeAssets: ['favicon.svg'],
       workbox: {
         // Every route chunk and stylesheet, and only the woff2 copies of Roboto and the icon font:
         // browsers that run this service worker all read woff2, so the eot/ttf/woff copies would be dead weight.
         globPatterns: ['**/*.{js,css,html,woff2}'],
-        globIgnores: ['**/*.{eot,ttf,woff}'],
+        globIgnores: ['**/*.{eot,ttf,woff}', 'screenshots/**'],
         navigateFallback: 'index.html',
         navigateFallbackDenylist: [/^\/api(?:\/|$)/],
         // Nothing from /api is ever cached: answers carry patient data. There is no Background Sync route: the

@@ -4,6 +4,7 @@ import { isHTTPError } from 'ky'
 import type { LoginInput, Role, User } from '#shared/schemas/user'
 import * as auth from '@/api/auth'
 import { accessToken } from '@/api/token'
+import { lastKnownDemo, rememberDemo } from '@/utils/demo-flag'
 import type { unsyncedWorkOnDevice } from '@/db/outbox'
 
 export type RenewOutcome = 'renewed' | 'refused' | 'unreachable'
@@ -32,7 +33,10 @@ export const useSessionStore = defineStore('session', () => {
   }
 
   async function loadDemoFlag() {
-    demo.value = await auth.fetchHealth().then((h) => h.demo).catch(() => false)
+    demo.value = await auth
+      .fetchHealth()
+      .then((h) => (rememberDemo(h.demo), h.demo))
+      .catch(lastKnownDemo)
   }
 
   async function refreshSession() {

@@ -15,7 +15,7 @@ const WAIT = { timeout: 30_000 }
 const SHOTS: Record<string, { path: string; ready: string }> = {
   'quick-exam': { path: '/record?mode=quick', ready: 'main h1' },
   home: { path: '/', ready: '[data-testid=caution-note]' },
-  'exam-log': { path: '/exams', ready: '[data-testid=exam-table] a[href^="/exams/"]' },
+  'exam-log': { path: '/exams', ready: ':is([data-testid=exam-table], [data-testid=exam-list]) a[href^="/exams/"]' },
 }
 
 async function settle(page: Page, ready: string) {
