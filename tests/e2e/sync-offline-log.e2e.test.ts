@@ -37,9 +37,9 @@ describe('the exam log with no connection, in Chromium against the real server',
       await expect.poll(() => page.getByTestId('log-from-device').textContent(), WAIT).toContain('Last synced with the server')
       await expect.poll(() => page.getByTestId('log-from-device').textContent(), WAIT).toContain('One exam is saved here but not yet sent')
       await expect.poll(() => page.getByTestId(`unsent-${examId}`).textContent(), WAIT).toContain('Not yet sent')
-      expect(await page.getByTestId('exam-table').textContent()).toContain('SM-0777')
+      expect(await page.getByTestId('exam-list').textContent()).toContain('SM-0777')
       await page.getByTestId('filter-status-draft').click()
-      await expect.poll(() => page.getByTestId('exam-table').textContent(), WAIT).toContain('SM-0777')
+      await expect.poll(() => page.getByTestId('exam-list').textContent(), WAIT).toContain('SM-0777')
       expect(pulled).toBeGreaterThan(0)
 
       await server.start()
@@ -48,7 +48,7 @@ describe('the exam log with no connection, in Chromium against the real server',
       await expect.poll(() => countInDevice(page, 'outbox'), SYNC_WAIT).toBe(0)
       await expect.poll(() => visible(page, 'log-from-device'), SYNC_WAIT).toBe(false)
       await expect.poll(() => page.getByTestId(`unsent-${examId}`).count(), WAIT).toBe(0)
-      await expect.poll(() => page.getByTestId('exam-table').textContent(), WAIT).toContain('SM-0777')
+      await expect.poll(() => page.getByTestId('exam-list').textContent(), WAIT).toContain('SM-0777')
       await page.context().close()
     } finally {
       await server.dispose()

@@ -88,7 +88,7 @@ describe('cached exam log and sync pull: writes show on the next read', () => {
     await act(app, attending.auth, exam, 'countersign', SIGN)
     const before = await examLog(resident.auth)
 
-    await sequelize.query(`UPDATE exams SET heightCm = 9 WHERE id = '${exam.id}'`)
+    await sequelize.query(`UPDATE exams SET "heightCm" = 9 WHERE id = '${exam.id}'`)
     const after = await examLog(resident.auth)
 
     expect(before[0]!.signatures!.map((s) => s.valid)).toEqual([true])
