@@ -1,17 +1,18 @@
 import { existsSync } from 'node:fs'
-import path from 'node:path'
 import { loadConfig } from '../config.ts'
-import { openDatabase } from '../db/sequelize.ts'
+import { databaseLocation, isPostgresUrl, openDatabase } from '../db/sequelize.ts'
 import { describeReport } from './chain-report.ts'
 import { verifyAuditChain } from './chain-verify.ts'
 
-// `npm run audit:verify`: exit code 0 when the chain is intact, 1 when it is broken, 2 when it could not be checked.
-const file = path.join(loadConfig().DATA_DIR, 'plumbline.sqlite')
-if (!existsSync(file)) {
-  console.error(`No database at ${file}`)
+// `npm run audit:verify`: the chain on DATABASE_URL when set, else in the SQLite file in DATA_DIR, as `npm run migrate`
+// chooses. Exit code 0 when the chain is intact, 1 when it is broken, 2 when it could not be checked.
+const location = databaseLocation(loadConfig())
+// Opening a missing SQLite file would create an empty one.
+if (!isPostgresUrl(location) && !existsSync(location)) {
+  console.error(`No database at ${location}`)
   process.exit(2)
 }
-const sequelize = openDatabase(file)
+const sequelize = openDatabase(location)
 try {
   const report = await verifyAuditChain(sequelize)
   console.log(describeReport(report))

@@ -19,6 +19,7 @@ import * as auditChain from './migrations/2026.12.11T10.00.00.audit-chain.ts'
 import * as mailOutbox from './migrations/2026.12.11T10.30.00.mail-outbox.ts'
 import * as references from './migrations/2026.12.11T11.00.00.references.ts'
 import * as rateLimitHits from './migrations/2026.12.12T10.00.00.rate-limit-hits.ts'
+import * as signatureSupersedeColumns from './migrations/2026.12.12T12.00.00.signature-supersede-columns.ts'
 
 interface MigrationModule {
   up(q: QueryInterface): Promise<void>
@@ -46,6 +47,7 @@ const migrations: [string, MigrationModule][] = [
   ['2026.12.11T10.30.00.mail-outbox', mailOutbox],
   ['2026.12.11T11.00.00.references', references],
   ['2026.12.12T10.00.00.rate-limit-hits', rateLimitHits],
+  ['2026.12.12T12.00.00.signature-supersede-columns', signatureSupersedeColumns],
 ]
 
 /** Every migration's name, oldest first. */

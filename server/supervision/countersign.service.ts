@@ -13,6 +13,7 @@ import { AuditEventModel, UserModel, type ExamModel } from '../models/index.ts'
 import { invalidateObserverTerm } from '../agreement/observer-term.ts'
 import { estimateContext } from '../settings/settings-estimate.ts'
 import { readingTime, teachingAudit, teachingFor, type ReadingTimes } from './attending-reading.ts'
+import type { Notifier } from './notifications.ts'
 import { checkSubmitted, reviewedRow } from './review-access.ts'
 import { recordSignature } from './signatures.ts'
 
@@ -37,8 +38,11 @@ export interface Countersigned {
   signature: Signature
 }
 
-/** Signs the submitted version as it stands and locks it; the version number stays, since the content does not change. */
-export async function countersignExam(signer: User, id: string, input: CountersignInput): Promise<Countersigned> {
+/**
+ * Signs the submitted version as it stands and locks it; the version number stays, since the content does not change.
+ * The author's e-mail is queued in the signing transaction.
+ */
+export async function countersignExam(signer: User, id: string, input: CountersignInput, notifier?: Notifier): Promise<Countersigned> {
   const signedAt = new Date()
   const examinedAt = input.attendingReading ? readingTime(input.attendingReading, signedAt) : signedAt
   // Checked before the slow password hash, and again under the write lock in case the exam moved meanwhile.
@@ -48,7 +52,7 @@ export async function countersignExam(signer: User, id: string, input: Countersi
   const row = await inTransaction(async (transaction) => {
     const row = await reviewedRow(signer, id, transaction)
     await checkSubmitted(row, input.baseVersion)
-    return applyCountersignature(signer, row, input, { signedAt, examinedAt, context }, transaction)
+    return applyCountersignature(signer, row, input, { signedAt, examinedAt, context }, transaction, notifier)
   })
   // The reading may form a new pair, which moves the local observer spread.
   if (input.attendingReading) invalidateObserverTerm()
@@ -57,8 +61,8 @@ export async function countersignExam(signer: User, id: string, input: Countersi
 }
 
 /**
- * Locks the checked, submitted row as countersigned with the signature, the attending's reading and the feedback, and
- * audits it, in the caller's transaction. The password was checked by the caller.
+ * Locks the checked, submitted row as countersigned with the signature, the attending's reading and the feedback,
+ * audits it and queues the author's e-mail, in the caller's transaction. The password was checked by the caller.
  */
 export async function applyCountersignature(
   signer: User,
@@ -66,6 +70,7 @@ export async function applyCountersignature(
   input: Omit<CountersignInput, 'password'>,
   at: ReadingTimes,
   transaction: Transaction,
+  notifier?: Notifier,
 ): Promise<ExamModel> {
   const before = snapshotOf(row)
   row.status = 'countersigned'
@@ -77,5 +82,6 @@ export async function applyCountersignature(
   }
   const changes = { ...changesBetween(before, snapshotOf(row)), signature }
   await audit({ actorId: signer.id, action: 'exam-countersign', entityType: 'exam', entityId: row.id, changes }, { transaction })
+  await notifier?.countersigned(row, s, transaction)
   return row
 }

@@ -4,19 +4,25 @@ import type { User } from '#shared/schemas/user'
 import { snapshotOf } from '../exams/exam-changes.ts'
 import { presentOwn } from '../exams/exam-record.ts'
 import { authoredRow, checkBaseVersion, conflict, inTransaction, saveChange } from '../exams/exam-writes.ts'
+import type { Notifier } from './notifications.ts'
 import { checkSubmitted, reviewedRow } from './review-access.ts'
 import { supersedeSignature } from './signatures.ts'
 
 const AMENDABLE = new Set(['returned', 'countersigned'])
 
-/** Sends a submitted exam back to its author with the reviewer's comment; the author amends and resubmits. */
-export async function returnExam(reviewer: User, id: string, input: ReturnInput): Promise<Exam> {
+/**
+ * Sends a submitted exam back to its author with the reviewer's comment; the author amends and resubmits. The author's
+ * e-mail is queued in the same transaction.
+ */
+export async function returnExam(reviewer: User, id: string, input: ReturnInput, notifier?: Notifier): Promise<Exam> {
   const row = await inTransaction(async (transaction) => {
     const row = await reviewedRow(reviewer, id, transaction)
     await checkSubmitted(row, input.baseVersion)
     const before = snapshotOf(row)
     row.set({ status: 'returned', returnComment: input.comment })
-    return saveChange(reviewer, row, 'exam-return', transaction, before)
+    const saved = await saveChange(reviewer, row, 'exam-return', transaction, before)
+    await notifier?.returned(saved, reviewer, transaction)
+    return saved
   })
   return presentOwn(row)
 }

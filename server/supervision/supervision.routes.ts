@@ -35,15 +35,12 @@ export function supervisionRouter(options: SupervisionRouterOptions): Router {
   const attendings = requireRole('attending')
 
   router.post('/exams/:id/countersign', attendings, async (req, res) => {
-    const { exam, signature } = await countersignExam(user(res), idOf(req), CountersignInputSchema.parse(bodyOf(req)))
-    await notifier.countersigned(exam, signature)
+    const { exam } = await countersignExam(user(res), idOf(req), CountersignInputSchema.parse(bodyOf(req)), notifier)
     res.json(exam)
   })
-  router.post('/exams/:id/return', attendings, async (req, res) => {
-    const exam = await returnExam(user(res), idOf(req), ReturnInputSchema.parse(bodyOf(req)))
-    await notifier.returned(exam, user(res))
-    res.json(exam)
-  })
+  router.post('/exams/:id/return', attendings, async (req, res) =>
+    res.json(await returnExam(user(res), idOf(req), ReturnInputSchema.parse(bodyOf(req)), notifier)),
+  )
   router.post('/exams/:id/amend', requireRole('resident', 'attending'), async (req, res) =>
     res.json(await amendExam(user(res), idOf(req), AmendInputSchema.parse(bodyOf(req)))),
   )

@@ -7,7 +7,8 @@ import { audit, auditAll } from '../../../server/audit.ts'
 import { chainHash, GENESIS_HASH, type ChainedContent } from '../../../server/audit-trail/audit-chain.ts'
 import { verifyAuditChain } from '../../../server/audit-trail/chain-verify.ts'
 import { writeTransaction } from '../../../server/db/transaction.ts'
-import { isSqlite } from '../database-kind.ts'
+import { isPostgresUrl } from '../../../server/db/sequelize.ts'
+import { isPostgres } from '../database-kind.ts'
 import { dropTrigger, fileDatabase, rawSql } from './chain-database.ts'
 
 const sha256 = (text: string) => createHash('sha256').update(text).digest('hex')
@@ -120,18 +121,33 @@ describe('the audit hash chain', () => {
   })
 })
 
-// verify-cli.ts reads the SQLite file in DATA_DIR; on PostgreSQL the same verifier runs above, through the API's code.
-describe.runIf(isSqlite)('npm run audit:verify (on the SQLite file in DATA_DIR)', () => {
+/** `npm run audit:verify` run as an operator would, on the database DATABASE_URL names, else the SQLite file in DATA_DIR. */
+function verifyCli(dir: string, location: string) {
+  const { DATABASE_URL: _unset, ...env } = process.env
+  const database = isPostgresUrl(location) ? { DATABASE_URL: location } : {}
+  return promisify(execFile)(process.execPath, ['--import', 'tsx', 'server/audit-trail/verify-cli.ts'], {
+    env: { ...env, DATA_DIR: dir, ...database },
+  }).then(
+    ({ stdout }) => ({ code: 0, stdout }),
+    (err: { code: number; stdout: string }) => ({ code: err.code, stdout: err.stdout }),
+  )
+}
+
+describe(`npm run audit:verify (on ${isPostgres ? 'the database DATABASE_URL names' : 'the SQLite file in DATA_DIR'})`, () => {
+  it('when the chain is intact, exits 0 and counts every row', async () => {
+    const { dir, file } = await trailOfFive()
+
+    const result = await verifyCli(dir, file)
+
+    expect(result.code).toBe(0)
+    expect(result.stdout).toContain('Audit chain intact: 5 row(s) verified.')
+  })
+
   it('when a row is gone, exits 1 and names the first broken link', async () => {
     const { dir, file } = await trailOfFive()
     await rawSql(file, `${dropTrigger('audit_events_no_delete')} DELETE FROM audit_events WHERE seq = 2;`)
 
-    const result = await promisify(execFile)(process.execPath, ['--import', 'tsx', 'server/audit-trail/verify-cli.ts'], {
-      env: { ...process.env, DATA_DIR: dir },
-    }).then(
-      ({ stdout }) => ({ code: 0, stdout }),
-      (err: { code: number; stdout: string }) => ({ code: err.code, stdout: err.stdout }),
-    )
+    const result = await verifyCli(dir, file)
 
     expect(result.code).toBe(1)
     expect(result.stdout).toContain('BROKEN (missing-row) at sequence 2')

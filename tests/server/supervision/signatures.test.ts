@@ -150,6 +150,24 @@ describe('the signatures table is append-only', () => {
     })
   })
 
+  it.each([
+    ['the feedback codes', `feedback = '["history"]'`],
+    ['the feedback text', `"feedbackText" = 'rewritten later'`],
+    ['the attending reading', `"readingExamId" = "examId"`],
+  ])('refuses an UPDATE that marks the signature superseded and changes %s', async (_what, set) => {
+    const { exam } = await signedOnWard()
+
+    const failure = await failureOf(`UPDATE signatures SET "supersededAt" = '2026-01-01 00:00:00.000 +00:00', ${set}`)
+
+    expect(failure).toMatch(/append-only/)
+    expect((await SignatureModel.findOne({ where: { examId: exam.id } }))!.toJSON()).toMatchObject({
+      supersededAt: null,
+      feedback: null,
+      feedbackText: null,
+      readingExamId: null,
+    })
+  })
+
   it('allows marking a signature superseded once, and never un-marking or re-marking it', async () => {
     await signedOnWard()
 
