@@ -30,6 +30,8 @@ export interface SchemaDialect {
   allowedValuesTrigger(spec: AllowedValuesTrigger): string[]
   syncCursorTriggers(): string[]
   dropSyncCursorTriggers(): string[]
+  /** Drops one trigger of `table` by name (SQLite names triggers in the schema, PostgreSQL on their table). */
+  dropTrigger(table: string, name: string): string[]
   dropColumn(q: QueryInterface, table: string, column: string): Promise<void>
   /** Renames a table with what is named after it (PostgreSQL: its primary key and id sequence), freeing the old names. */
   renameTable(q: QueryInterface, from: string, to: string): Promise<void>

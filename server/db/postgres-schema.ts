@@ -120,6 +120,7 @@ export const postgresSchema: SchemaDialect = {
   ],
   dropSyncCursorTriggers: () =>
     [...SYNC_LOCKS, ...SYNC_TRIGGERS].map(([name]) => `DROP TRIGGER IF EXISTS ${quoteName(name)} ON "exams"`).reverse(),
+  dropTrigger: (table, name) => [`DROP TRIGGER ${quoteName(name)} ON ${quoteName(table)}`],
   dropColumn,
   renameTable,
   continueIds,

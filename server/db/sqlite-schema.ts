@@ -49,6 +49,7 @@ export const sqliteSchema: SchemaDialect = {
   ],
   dropSyncCursorTriggers: () =>
     ['exams_sync_seq_update', 'exams_sync_seq_insert'].map((name) => `DROP TRIGGER IF EXISTS ${quoteName(name)}`),
+  dropTrigger: (_table, name) => [`DROP TRIGGER ${quoteName(name)}`],
   dropColumn,
   renameTable: (q, from, to) => q.renameTable(from, to),
   // AUTOINCREMENT keeps the highest id inserted in sqlite_sequence, explicit ones included.

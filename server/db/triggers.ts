@@ -34,6 +34,11 @@ export async function syncCursorTriggers(q: QueryInterface): Promise<void> {
   await run(q, schemaDialect(q).syncCursorTriggers())
 }
 
+/** Drops the trigger `name` of `table`, e.g. to make it again over more columns. */
+export async function dropTrigger(q: QueryInterface, table: string, name: string): Promise<void> {
+  await run(q, schemaDialect(q).dropTrigger(table, name))
+}
+
 export async function dropSyncCursorTriggers(q: QueryInterface): Promise<void> {
   await run(q, schemaDialect(q).dropSyncCursorTriggers())
 }

@@ -39,9 +39,8 @@ export function examsRouter(options: SupervisionRouterOptions): Router {
     res.json(await updateExam(currentUser(res), idOf(req), ExamPatchSchema.parse(req.body))),
   )
   router.post('/exams/:id/submit', authors, async (req, res) => {
-    const exam = await submitExam(currentUser(res), idOf(req), SubmitSchema.parse(req.body ?? {}).baseVersion)
-    await notifier.submitted(exam)
-    res.json(exam)
+    const { baseVersion } = SubmitSchema.parse(req.body ?? {})
+    res.json(await submitExam(currentUser(res), idOf(req), baseVersion, (row, transaction) => notifier.submitted(row, transaction)))
   })
   return router
 }

@@ -2,6 +2,7 @@ import { ExamInputSchema, type Exam, type ExamInput, type ExamPatch } from '#sha
 import type { User } from '#shared/schemas/user'
 import { audit } from '../audit.ts'
 import { AppError, invalidInput } from '../errors.ts'
+import type { Transaction } from 'sequelize'
 import { ExamModel } from '../models/index.ts'
 import { changesBetween, snapshotOf } from './exam-changes.ts'
 import { columnsOf, isRetryOf, presentOwn, storedInput } from './exam-record.ts'
@@ -65,14 +66,19 @@ export async function updateExam(author: User, id: string, patch: ExamPatch): Pr
 }
 
 /** Sends a draft or returned exam for countersignature, stamped with the server's time. */
-export async function submitExam(author: User, id: string, baseVersion?: number): Promise<Exam> {
+/** What is told of a submission inside its transaction (the countersign request e-mail), so both commit or neither. */
+export type SubmitNotice = (row: ExamModel, transaction: Transaction) => Promise<void>
+
+export async function submitExam(author: User, id: string, baseVersion?: number, notice?: SubmitNotice): Promise<Exam> {
   return inTransaction(async (transaction) => {
     const row = await authoredRow(author, id, transaction)
     await checkEditable(row, baseVersion)
     checkVenousConfirmed(row)
     const before = snapshotOf(row)
     row.set({ status: 'submitted', submittedAt: new Date(), returnComment: null })
-    return saveChange(author, row, 'exam-submit', transaction, before)
+    const saved = await saveChange(author, row, 'exam-submit', transaction, before)
+    await notice?.(saved, transaction)
+    return saved
   })
     .then((row) => {
       // A submitted exam may form a new pair, which moves the local observer spread.

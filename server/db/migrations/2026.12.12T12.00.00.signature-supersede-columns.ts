@@ -1,7 +1,5 @@
 import type { QueryInterface } from 'sequelize'
-import { byDatabase } from '../dialect.ts'
-import { quoteName } from '../quote.ts'
-import { setOnceTrigger } from '../triggers.ts'
+import { dropTrigger, setOnceTrigger } from '../triggers.ts'
 
 const TRIGGER = 'signatures_supersede_only'
 const MESSAGE = 'signatures are append-only: only supersededAt may be set, once'
@@ -11,12 +9,6 @@ const FIRST_COLUMNS = ['id', 'examId', 'examVersion', 'signerId', 'signerName', 
 const LATER_COLUMNS = ['readingExamId', 'feedback', 'feedbackText']
 const ALL_COLUMNS = [...FIRST_COLUMNS, ...LATER_COLUMNS]
 
-// SQLite names a trigger in the schema, PostgreSQL on its table: no statement reads the same on both.
-async function dropTrigger(q: QueryInterface): Promise<void> {
-  const name = quoteName(TRIGGER)
-  await q.sequelize.query(byDatabase(q, { sqlite: `DROP TRIGGER ${name}`, postgres: `DROP TRIGGER ${name} ON "signatures"` }))
-}
-
 /** Refuses to run on a signatures table whose columns are not the ones the new trigger lists. */
 async function checkColumns(q: QueryInterface): Promise<void> {
   const stored = Object.keys(await q.describeTable('signatures')).filter((c) => c !== 'supersededAt')
@@ -25,7 +17,7 @@ async function checkColumns(q: QueryInterface): Promise<void> {
 }
 
 const recreate = async (q: QueryInterface, unchanged: readonly string[]) => {
-  await dropTrigger(q)
+  await dropTrigger(q, 'signatures', TRIGGER)
   await setOnceTrigger(q, { name: TRIGGER, table: 'signatures', column: 'supersededAt', unchanged, message: MESSAGE })
 }
 
