@@ -2,12 +2,13 @@ import type { NextFunction, Request, Response } from 'express'
 import type { Role, User } from '#shared/schemas/user'
 import { verifyAccessToken } from '../auth/tokens.ts'
 import { AppError } from '../errors.ts'
-import { getAuthState } from '../users/users.service.ts'
+import { getAuthState } from '../users/auth-state.ts'
 
 /**
  * Verifies the bearer token and loads the account, which must still be active: a deactivated account's access tokens
  * (15 minutes at most, ACCESS_TTL_SECONDS) stop working at its next request. A token issued before the password last
  * changed (a reset link was used) is refused too, so a reset ends every session at once, not only the refresh ones.
+ * The account, roles and teams come from one query per request (users/auth-state.ts): nothing about them is cached.
  */
 export function requireAuth(secret: string) {
   return async (req: Request, res: Response, next: NextFunction) => {

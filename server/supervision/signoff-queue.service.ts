@@ -4,6 +4,7 @@ import type { SignoffQueue, SignoffQueueQuery, SignoffQueueResident } from '#sha
 import type { User } from '#shared/schemas/user'
 import { invalidInput } from '../errors.ts'
 import { cappedCount } from '../exams/exam-count.ts'
+import type { PageCache } from '../exams/exam-caches.ts'
 import { presentPage } from '../exams/exam-page.ts'
 import { ExamModel, UserModel } from '../models/index.ts'
 import { afterCursor, decodeQueueCursor, queueCursorAfter, queueOrder } from './signoff-queue-cursor.ts'
@@ -20,8 +21,11 @@ async function pageStart(where: WhereOptions<ExamModel>, query: SignoffQueueQuer
   return { where: afterCursor(where, cursor), offset: 0, total: cursor.t, capped: cursor.c }
 }
 
-/** The attending's sign-off queue, oldest or newest submission first, narrowed by search and resident. */
-export async function signoffQueue(attending: User, query: SignoffQueueQuery): Promise<SignoffQueue> {
+/**
+ * The attending's sign-off queue, oldest or newest submission first, narrowed by search and resident. With a cache
+ * (exam-caches.ts), exams presented for an earlier read and unchanged since are not built again.
+ */
+export async function signoffQueue(attending: User, query: SignoffQueueQuery, cache?: PageCache): Promise<SignoffQueue> {
   const start = await pageStart(await filteredQueue(attending, query), query)
   const rows = await ExamModel.findAll({
     where: start.where,
@@ -31,7 +35,7 @@ export async function signoffQueue(attending: User, query: SignoffQueueQuery): P
   })
   const page = rows.slice(0, query.pageSize)
   // Team attendings see the real codes of their teams' submitted exams (exam-access.ts).
-  const exams = await presentPage(page, (r) => r.patientCode)
+  const exams = await presentPage(page, (r) => r.patientCode, cache)
   const now = Date.now()
   const items = exams.map((exam, i) => ({
     exam,

@@ -4,6 +4,8 @@ import { z } from 'zod'
 import { AmendInputSchema, CountersignInputSchema, ReturnInputSchema } from '#shared/schemas/signature'
 import { SignoffQueueQuerySchema } from '#shared/schemas/signoff-queue'
 import { patientCodeMask } from '../exams/exam-access.ts'
+import { examRead } from '../exams/exam-answers.ts'
+import { examCaches } from '../exams/exam-caches.ts'
 import type { MailDeps } from '../mail/mailer.ts'
 import { currentUser, requireRole } from '../middleware/auth.ts'
 import { countersignExam } from './countersign.service.ts'
@@ -46,9 +48,10 @@ export function supervisionRouter(options: SupervisionRouterOptions): Router {
   )
   router.get('/exams/:id/signatures', async (req, res) => res.json(await examSignatures(user(res), idOf(req))))
   router.get('/exams/:id/history', async (req, res) => res.json(await examHistory({ user: user(res), mask }, idOf(req))))
-  router.get('/signoff-queue', attendings, async (req, res) =>
-    res.json(await signoffQueue(user(res), SignoffQueueQuerySchema.parse(req.query))),
-  )
+  router.get('/signoff-queue', attendings, async (req, res) => {
+    const [query, read] = [SignoffQueueQuerySchema.parse(req.query), await examRead({ user: user(res), mask })]
+    await examCaches().answers.send(req, res, read.keyOf('signoff-queue', query), () => signoffQueue(user(res), query, read.cache))
+  })
   router.get('/signoff-queue/count', attendings, async (_req, res) => res.json(await signoffCount(user(res))))
   router.get('/signoff-queue/residents', attendings, async (_req, res) => res.json(await signoffResidents(user(res))))
   return router

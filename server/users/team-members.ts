@@ -14,9 +14,10 @@ export async function membersOf(teamIds: Iterable<string>, transaction?: Transac
   return new Set(memberships.map((m) => m.userId))
 }
 
-/** Each account's teams, in membership order; accounts without a team are absent. */
+/** Each account's teams, by team id (as SQLite's primary key index gives them, and auth-state.ts); accounts without a team are absent. */
 export async function teamsOf(userIds: string[], transaction?: Transaction): Promise<Map<string, TeamRef[]>> {
-  const memberships = await MembershipModel.findAll({ where: { userId: { [Op.in]: userIds } }, transaction })
+  const order: [string, string][] = [['teamId', 'ASC']]
+  const memberships = await MembershipModel.findAll({ where: { userId: { [Op.in]: userIds } }, order, transaction })
   const teams = await TeamModel.findAll({ where: { id: { [Op.in]: memberships.map((m) => m.teamId) } }, transaction })
   const byId = new Map(teams.map((t) => [t.id, { id: t.id, name: t.name }]))
   const result = new Map<string, TeamRef[]>()

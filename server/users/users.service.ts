@@ -19,13 +19,6 @@ export async function getUser(id: string): Promise<User | null> {
   return toUser(u, (await teamsOf([u.id])).get(u.id) ?? [])
 }
 
-/** The account and when its password last changed, for requireAuth; null when there is no such account. */
-export async function getAuthState(id: string): Promise<{ user: User; passwordChangedAt: Date | null } | null> {
-  const u = await UserModel.findByPk(id)
-  if (!u) return null
-  return { user: toUser(u, (await teamsOf([u.id])).get(u.id) ?? []), passwordChangedAt: u.passwordChangedAt ?? null }
-}
-
 export async function listUsers(): Promise<User[]> {
   const users = await UserModel.findAll({ order: [['displayName', 'ASC']] })
   const teams = await teamsOf(users.map((u) => u.id))

@@ -1,5 +1,6 @@
 // Throughput of the paged reads over many exams against bare Express serving the same page from memory, each server
 // in its own process, autocannon in this one. Run: npm run bench:api [-- --exams=1000000] [-- --data-dir=/tmp/bench-1m]
+// With DATABASE_URL set, the exams are seeded into (or reused from) that PostgreSQL database, and the server reads it.
 import { fork, spawn, type ChildProcess } from 'node:child_process'
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
@@ -7,7 +8,7 @@ import path from 'node:path'
 import autocannon from 'autocannon'
 import { signAccessToken } from '../../server/auth/tokens.ts'
 import { createMigrator } from '../../server/db/migrator.ts'
-import { openDatabase } from '../../server/db/sequelize.ts'
+import { databaseLocation, openDatabase } from '../../server/db/sequelize.ts'
 import { cursorAfter } from '../../server/exams/exam-keyset.ts'
 import { ExamModel, initModels, UserModel } from '../../server/models/index.ts'
 import { seedBench } from './api-seed.ts'
@@ -16,6 +17,8 @@ const flag = (name: string) => process.argv.find((a) => a.startsWith(`--${name}=
 const EXAMS = Number(flag('exams') ?? 100_000)
 /** A folder to seed once and keep (`--data-dir=…`): a later run with the same folder and count skips the seeding. */
 const KEPT_DIR = flag('data-dir')
+/** `--source-maps=off`: the server without source-mapped stack traces (tsx turns them on), to measure what they cost. */
+const SOURCE_MAPS = flag('source-maps') !== 'off'
 const SECRET = 'bench-secret-'.padEnd(64, 'x')
 const CONNECTIONS = 50
 const DURATION_S = 10
@@ -35,7 +38,8 @@ interface Target {
 function startServer(dataDir: string): { child: ChildProcess; url: Promise<string> } {
   const env = { ...process.env, PORT: '0', DATA_DIR: dataDir, DEMO: 'false', LOG_LEVEL: 'warn', JWT_SECRET: SECRET }
   Object.assign(env, { NODE_ENV: 'production', BCRYPT_COST: '13', PUBLIC_URL: 'https://plumbline.test' })
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], { env, stdio: ['ignore', 'pipe', 'inherit'] })
+  const imports = ['--import', 'tsx', ...(SOURCE_MAPS ? [] : ['--import', './tests/bench/no-source-maps.ts'])]
+  const child = spawn(process.execPath, [...imports, 'server/index.ts'], { env, stdio: ['ignore', 'pipe', 'inherit'] })
   const url = new Promise<string>((resolve, reject) => {
     child.stdout!.on('data', (chunk: Buffer) => {
       const match = /running at (\S+)/.exec(chunk.toString())
@@ -57,9 +61,12 @@ const stopped = (child: ChildProcess) =>
 const HEAVY = 'resident@saltmarsh.test'
 const ATTENDING = 'attending@saltmarsh.test'
 
-/** Seeds the data folder unless it already holds this many exams; answers the tokens and a cursor deep in the resident's log. */
+/**
+ * Seeds the database (the SQLite file in the data folder, or DATABASE_URL's) unless it already holds this many exams;
+ * answers the tokens and a cursor deep in the resident's log.
+ */
 async function seed(dataDir: string) {
-  const sequelize = openDatabase(path.join(dataDir, 'plumbline.sqlite'))
+  const sequelize = openDatabase(databaseLocation({ DATABASE_URL: process.env.DATABASE_URL, DATA_DIR: dataDir }))
   initModels(sequelize)
   await createMigrator(sequelize).up()
   const started = performance.now()
@@ -91,7 +98,12 @@ async function seed(dataDir: string) {
  */
 async function warmUp(url: string, token?: string) {
   for (let i = 0; i < 5; i++) await encodingOf(url, token)
-  await autocannon({ url, connections: 10, duration: WARM_UP_S, headers: { ...ACCEPT, ...(token ? { authorization: `Bearer ${token}` } : {}) } })
+  await autocannon({
+    url,
+    connections: 10,
+    duration: WARM_UP_S,
+    headers: { ...ACCEPT, ...(token ? { authorization: `Bearer ${token}` } : {}) },
+  })
 }
 
 async function load(url: string, token?: string) {
@@ -147,7 +159,10 @@ try {
     { name: 'sync pull from 0 (500)', path: '/api/sync/pull?cursor=0&limit=500', token: resident, goal: { p99Ms: 150 } },
   ]
   const baseline = await load(bareUrl)
-  console.log(`\n${EXAMS.toLocaleString('en')} exams, ${CONNECTIONS} connections, ${DURATION_S} s each, Accept-Encoding: br, gzip`)
+  const database = process.env.DATABASE_URL ? 'PostgreSQL' : 'SQLite'
+  console.log(
+    `\n${EXAMS.toLocaleString('en')} exams on ${database}, source maps ${SOURCE_MAPS ? 'on' : 'off'}, ${CONNECTIONS} connections, ${DURATION_S} s each, Accept-Encoding: br, gzip`,
+  )
   console.log(
     `${pad('bare Express, first page from memory', 40)} ${baseline.rps.toFixed(0).padStart(6)} req/s  p99 ${String(baseline.p99).padStart(5)} ms  ${await encodingOf(bareUrl)}`,
   )

@@ -1,5 +1,7 @@
 // Pushes 2,000 exams from an outbox (fake-indexeddb in Node) to the real server in its own process, over loopback.
 // Prints exams per second end to end and the server's peak RSS. Run: npm run bench:sync
+// With DATABASE_URL set the server keeps its data there (PostgreSQL): name an empty database, which the server migrates
+// and fills with the demo hospital as it starts; the 2,000 exams stay in it afterwards.
 import { DEFAULT_ESTIMATE_SETTINGS } from '#shared/schemas/settings'
 import { defaultObserverTerm } from '#shared/domain/estimate'
 import 'fake-indexeddb/auto'
@@ -34,7 +36,9 @@ function startServer(dataDir: string) {
 
 // Linux keeps a process's peak resident set as VmHWM.
 function peakRssMb(pid: number): string {
-  const line = readFileSync(`/proc/${pid}/status`, 'utf8').split('\n').find((l) => l.startsWith('VmHWM:'))
+  const line = readFileSync(`/proc/${pid}/status`, 'utf8')
+    .split('\n')
+    .find((l) => l.startsWith('VmHWM:'))
   return line ? `${(Number(line.replace(/\D/g, '')) / 1024).toFixed(0)} MB` : 'unknown'
 }
 
@@ -87,9 +91,11 @@ try {
   await pullInto(account)
   const pulled = await db.exams.where('ownerId').equals(session.user.id).count()
   const perSecond = EXAMS / seconds
-  console.log(`pushed ${EXAMS} exams in ${seconds.toFixed(2)} s: ${perSecond.toFixed(0)} exams/s (target ≥ ${TARGET_PER_SECOND}); ${left} left in the outbox`)
+  console.log(
+    `pushed ${EXAMS} exams in ${seconds.toFixed(2)} s: ${perSecond.toFixed(0)} exams/s (target ≥ ${TARGET_PER_SECOND}); ${left} left in the outbox`,
+  )
   console.log(`pulled them back in ${((performance.now() - pullStarted) / 1000).toFixed(2)} s (${pulled} exams on the device)`)
-  console.log(`server peak RSS: ${peakRssMb(server.child.pid!)}`)
+  console.log(`server peak RSS: ${peakRssMb(server.child.pid!)}; database: ${process.env.DATABASE_URL ? 'PostgreSQL' : 'SQLite'}`)
   if (perSecond < TARGET_PER_SECOND || left > 0) process.exitCode = 1
 } finally {
   server.child.kill('SIGTERM')
