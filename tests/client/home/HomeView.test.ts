@@ -16,7 +16,7 @@ import { makeDraft } from '../factories/draft'
 import { makeUser } from '../factories/user'
 
 vi.mock('@/api/supervision')
-vi.mock('@/api/exams')
+vi.mock('@/api/exams', () => ({ fetchExam: vi.fn(), fetchExams: vi.fn(), submitExam: vi.fn(), updateExam: vi.fn(), createExam: vi.fn() }))
 
 const HOUR = 3600
 

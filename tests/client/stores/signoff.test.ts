@@ -7,7 +7,7 @@ import { makeExam } from '../components/exam/make-exam'
 import { makeSignature } from '../factories/signature'
 
 vi.mock('@/api/supervision')
-vi.mock('@/api/exams')
+vi.mock('@/api/exams', () => ({ fetchExam: vi.fn(), fetchExams: vi.fn(), submitExam: vi.fn(), updateExam: vi.fn(), createExam: vi.fn() }))
 
 describe('sign-off store', () => {
   beforeEach(() => {

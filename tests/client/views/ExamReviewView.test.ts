@@ -14,7 +14,7 @@ import { httpError } from '../factories/http-error'
 import { makeSignature } from '../factories/signature'
 import { makeUser } from '../factories/user'
 
-vi.mock('@/api/exams')
+vi.mock('@/api/exams', () => ({ fetchExam: vi.fn(), fetchExams: vi.fn(), submitExam: vi.fn(), updateExam: vi.fn(), createExam: vi.fn() }))
 vi.mock('@/api/supervision')
 
 async function mountReview(exam = makeExam({ status: 'submitted', examinerId: 'res-1' })) {

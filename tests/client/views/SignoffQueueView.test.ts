@@ -12,7 +12,7 @@ import { makeExam } from '../components/exam/make-exam'
 import { makeUser } from '../factories/user'
 
 vi.mock('@/api/supervision')
-vi.mock('@/api/exams')
+vi.mock('@/api/exams', () => ({ fetchExam: vi.fn(), fetchExams: vi.fn(), submitExam: vi.fn(), updateExam: vi.fn(), createExam: vi.fn() }))
 
 const HOUR = 3600
 
