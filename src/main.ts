@@ -6,4 +6,6 @@ import { registerPlugins } from './plugins'
 
 const app = createApp(App)
 registerPlugins(app)
-app.mount('#app')
+// In a task of its own: the session check's requests leave in the microtasks after this script, and rendering the app
+// bar first would hold them back.
+setTimeout(() => app.mount('#app'))

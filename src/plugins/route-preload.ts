@@ -1,6 +1,12 @@
-import type { Router } from 'vue-router'
+import type { RouteLocationResolved, Router } from 'vue-router'
 
 type Loader = () => Promise<unknown>
+
+/** The route of the address the app opens at. */
+export function openingRoute(router: Router, href = window.location.href): RouteLocationResolved {
+  const url = new URL(href)
+  return router.resolve(url.pathname + url.search)
+}
 
 /**
  * Starts loading the lazy view of the address the app opens at (its chunk, the chunks it imports and their
@@ -8,8 +14,7 @@ type Loader = () => Promise<unknown>
  * after it.
  */
 export function preloadOpeningRoute(router: Router, href = window.location.href) {
-  const url = new URL(href)
-  for (const record of router.resolve(url.pathname + url.search).matched) {
+  for (const record of openingRoute(router, href).matched) {
     const view = record.components?.default
     // a lazy view is a bare function; a loaded component is an object
     if (typeof view === 'function' && !('__vccOpts' in view) && !('props' in view)) (view as Loader)().catch(() => undefined)

@@ -3,9 +3,7 @@ import { computed, ref } from 'vue'
 import { ExamListQuerySchema, type Exam, type ExamListQuery } from '#shared/schemas/exam'
 import { serverUnreachable } from '@/api/client'
 import { fetchExam, fetchExams, submitExam, updateExam } from '@/api/exams'
-import { listLocalExams, unsentExams, type UnsentState } from '@/db/local-exam-list'
-import { loadLocalExam } from '@/db/local-exams'
-import { loadLastSync } from '@/db/meta'
+import type { UnsentState } from '@/db/local-exam-list'
 import { useSessionStore } from './session'
 
 export type ExamFilters = Pick<ExamListQuery, 'status' | 'patientCode' | 'from' | 'to'>
@@ -13,10 +11,23 @@ export type ExamPaging = Pick<ExamListQuery, 'page' | 'pageSize' | 'sort' | 'ord
 
 const NO_FILTERS: ExamFilters = { status: undefined, patientCode: undefined, from: undefined, to: undefined }
 
-// A proxy or gateway answering for a server it cannot reach: as good as no network.
+// The device database (Dexie, with several long tasks to start) loads only when the log needs it: for the marks of
+// unsent exams, which may follow the first rows, and for the copies shown while the server cannot be reached.
+const localExamList = () => import('@/db/local-exam-list')
+
 /** The device's outbox must never break the log: without it, rows simply carry no "not yet sent" mark. */
 async function unsentOrNone(userId: string | undefined): Promise<Record<string, UnsentState>> {
-  return userId ? unsentExams(userId).catch(() => ({})) : {}
+  if (!userId) return {}
+  return localExamList()
+    .then((db) => db.unsentExams(userId))
+    .catch(() => ({}))
+}
+
+/** The page of the log read from this device's copies, with when the device last synced. */
+async function deviceList(userId: string, q: ExamListQuery) {
+  const [{ listLocalExams }, { loadLastSync }] = await Promise.all([localExamList(), import('@/db/meta')])
+  const list = { ...(await listLocalExams(userId, q)), totalCapped: false, nextCursor: null }
+  return { list, local: true, syncedAt: await loadLastSync(userId) }
 }
 
 export const useExamsStore = defineStore('exams', () => {
@@ -53,8 +64,7 @@ export const useExamsStore = defineStore('exams', () => {
       const userId = useSessionStore().user?.id
       // Only a missing network falls back; a refusal from the server is an answer to show.
       if (!serverUnreachable(e) || !userId) throw e
-      const list = { ...(await listLocalExams(userId, q)), totalCapped: false, nextCursor: null }
-      return { list, local: true, syncedAt: await loadLastSync(userId) }
+      return deviceList(userId, q)
     }
   }
 
@@ -64,8 +74,6 @@ export const useExamsStore = defineStore('exams', () => {
   async function loadList() {
     const request = ++latestRequest
     loading.value = true
-    // read alongside the list, but never holding the rows back
-    const marks = unsentOrNone(useSessionStore().user?.id)
     try {
       const asked = query.value
       const { list, local, syncedAt } = await fetchList(asked)
@@ -79,7 +87,8 @@ export const useExamsStore = defineStore('exams', () => {
     } finally {
       if (request === latestRequest) loading.value = false
     }
-    const unsentNow = await marks
+    // after the rows, so the device database never holds them back
+    const unsentNow = await unsentOrNone(useSessionStore().user?.id)
     if (request === latestRequest) unsent.value = unsentNow
   }
 
@@ -106,7 +115,7 @@ export const useExamsStore = defineStore('exams', () => {
       current.value = await fetchExam(id)
     } catch (e) {
       const userId = useSessionStore().user?.id
-      const local = serverUnreachable(e) && userId ? await loadLocalExam(id, userId) : undefined
+      const local = serverUnreachable(e) && userId ? await (await import('@/db/local-exams')).loadLocalExam(id, userId) : undefined
       if (!local) throw e
       current.value = local
     }

@@ -5,6 +5,7 @@ import type { LoginInput, Role, User } from '#shared/schemas/user'
 import * as auth from '@/api/auth'
 import { accessToken } from '@/api/token'
 import { lastKnownDemo, rememberDemo } from '@/utils/demo-flag'
+import { whenIdle } from '@/plugins/idle'
 import type { unsyncedWorkOnDevice } from '@/db/outbox'
 
 export type RenewOutcome = 'renewed' | 'refused' | 'unreachable'
@@ -15,6 +16,27 @@ export type UnsyncedWork = Awaited<ReturnType<typeof unsyncedWorkOnDevice>>
 // visitor opens, sign-in, is smaller without it.
 const deviceMeta = () => import('@/db/meta')
 
+// Whether this browser held a session when the app last saw it: no secret (the refresh cookie stays HttpOnly), only
+// whether a public page such as sign-in should wait for the refresh call before it renders.
+const HAD_SESSION_KEY = 'plumbline.had-session'
+
+function hadSession(): boolean {
+  try {
+    return localStorage.getItem(HAD_SESSION_KEY) === 'yes'
+  } catch {
+    return true
+  }
+}
+
+function noteSession(had: boolean) {
+  try {
+    if (had) localStorage.setItem(HAD_SESSION_KEY, 'yes')
+    else localStorage.removeItem(HAD_SESSION_KEY)
+  } catch {
+    // storage refused: public pages then wait for the refresh call, as without the hint
+  }
+}
+
 export const useSessionStore = defineStore('session', () => {
   const user = ref<User | null>(null)
   /** Access token; memory only, the refresh cookie survives reloads instead. */
@@ -23,13 +45,29 @@ export const useSessionStore = defineStore('session', () => {
   const demo = ref(false)
   const restored = ref(false)
   let restoring: Promise<void> | null = null
+  // Bumped by every change of session, so a refresh answer that arrives after a sign-in does not undo it.
+  let sessionChanges = 0
 
   const signedIn = computed(() => user.value !== null)
 
   function applySession(session: { token: string; user: User } | null) {
+    sessionChanges += 1
     token.value = session?.token ?? null
     user.value = session?.user ?? null
-    if (session) void deviceMeta().then((meta) => meta.saveProfile(session.user)).catch(() => undefined)
+    if (!session) return
+    keepProfile(session.user)
+    noteSession(true)
+  }
+
+  // For the next offline start. Opening the device database costs several long tasks, so it waits until the first page
+  // is up and the browser idle, and is skipped if the account changed meanwhile (signed out).
+  function keepProfile(profile: User) {
+    whenIdle(() => {
+      if (user.value?.id !== profile.id) return
+      void deviceMeta()
+        .then((meta) => meta.saveProfile(profile))
+        .catch(() => undefined)
+    })
   }
 
   async function loadDemoFlag() {
@@ -40,22 +78,36 @@ export const useSessionStore = defineStore('session', () => {
   }
 
   async function refreshSession() {
+    const before = sessionChanges
     try {
-      applySession(await auth.refresh())
+      const session = await auth.refresh()
+      if (sessionChanges !== before) return
+      if (!session) noteSession(false)
+      applySession(session)
     } catch (e) {
+      if (sessionChanges !== before) return
       // 401: the cookie was refused (expired, revoked); another answer also leaves us signed out
       if (isHTTPError(e) && e.response.status !== 401) console.warn('Session restore failed', e)
       applySession(null)
+      if (isHTTPError(e)) return noteSession(false)
       // No answer at all (offline start): carry on with the profile kept on this device; sync gets a token later.
-      if (!isHTTPError(e)) user.value = await deviceMeta().then((meta) => meta.loadProfile()).catch(() => null)
+      const kept = await deviceMeta().then((meta) => meta.loadProfile()).catch(() => null)
+      if (sessionChanges === before + 1) user.value = kept
     }
   }
 
-  /** Restores the session from the refresh cookie; runs once per app start. */
-  function restore() {
-    restoring ??= Promise.all([refreshSession(), loadDemoFlag()]).then(() => {
+  /**
+   * Restores the session from the refresh cookie; runs once per app start, and later calls get the first one's promise.
+   * With `publicPage` (the app opens at sign-in, say) in a browser that had no session when last seen, it resolves
+   * once the demo flag is known and the refresh answer lands whenever it comes, so the page does not wait for it.
+   */
+  function restore(options: { publicPage?: boolean } = {}) {
+    if (restoring) return restoring
+    const demoKnown = loadDemoFlag()
+    const all = Promise.all([refreshSession(), demoKnown]).then(() => {
       restored.value = true
     })
+    restoring = options.publicPage && !hadSession() ? demoKnown : all
     return restoring
   }
 
@@ -88,6 +140,7 @@ export const useSessionStore = defineStore('session', () => {
     // Signs out locally even if the server cannot be reached.
     await auth.logout().catch(() => undefined)
     applySession(null)
+    noteSession(false)
     await wipeLocalData()
     return null
   }

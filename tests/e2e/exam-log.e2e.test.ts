@@ -45,7 +45,8 @@ async function createWorkedExample() {
 async function signedInPage(context: BrowserContext) {
   const page = await context.newPage()
   await signInAs(page, server.url, RESIDENT)
-  await expect.poll(() => page.getByTestId('nav-exams').isVisible(), WAIT).toBe(true)
+  // home once signed in (below the lg breakpoint the navigation drawer is built only when first opened)
+  await expect.poll(() => new URL(page.url()).pathname, WAIT).toBe('/')
   return page
 }
 
@@ -115,13 +116,21 @@ describe('the exam log in Chromium', () => {
     const ribbon = await page.getByTestId('demo-ribbon').boundingBox()
     expect(ribbon?.height).toBeLessThanOrEqual(32)
 
+    // the filters fold behind one button, so the rows begin on the first screen
+    const first = (await rows.first().boundingBox())!
+    expect(first.y + first.height).toBeLessThanOrEqual(height)
+    expect(await page.getByTestId('filter-status-draft').count()).toBe(0)
+
     // the first row just under the app bar, as far as the page scrolls
     const bar = (await page.locator('.v-app-bar').boundingBox())!
-    const first = (await rows.first().boundingBox())!
     await page.evaluate((by) => window.scrollBy(0, by), first.y - (bar.y + bar.height))
     const boxes = await Promise.all((await rows.all()).map((row) => row.boundingBox()))
     const onScreen = boxes.filter((box) => box && box.y >= bar.y + bar.height - 1 && box.y + box.height <= height)
     expect(onScreen.length).toBeGreaterThanOrEqual(6)
+
+    await page.getByTestId('exam-filters-toggle').click()
+    await page.getByTestId('filter-status-draft').click()
+    await expect.poll(() => page.getByTestId('exam-filters-count').textContent(), WAIT).toContain('1')
     await context.close()
   })
 })

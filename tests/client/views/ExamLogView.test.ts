@@ -285,6 +285,47 @@ describe('ExamLogView', () => {
     expect(caution.element.compareDocumentPosition(row.element) & Node.DOCUMENT_POSITION_FOLLOWING).toBeTruthy()
   })
 
+  it('on a phone, folds the filters and the CSV behind one Filters button, so the rows come first', async () => {
+    window.innerWidth = 390
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+    const { wrapper } = await mountLog()
+    const toggle = wrapper.get('[data-testid="exam-filters-toggle"]')
+    expect(toggle.attributes('aria-expanded')).toBe('false')
+    expect(wrapper.find('[data-testid="exam-filters"]').exists()).toBe(false)
+    expect(wrapper.find('[data-testid="export-csv"]').exists()).toBe(false)
+
+    await toggle.trigger('click')
+
+    await vi.waitFor(() => expect(wrapper.find('[data-testid="filter-status-draft"]').exists()).toBe(true))
+    expect(wrapper.find('[data-testid="export-csv"]').exists()).toBe(true)
+    expect(toggle.attributes('aria-expanded')).toBe('true')
+  })
+
+  it('on a phone, the Filters button counts the filters in use, and a status chosen behind it asks the server', async () => {
+    window.innerWidth = 390
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+    const { wrapper } = await mountLog()
+    expect(wrapper.find('[data-testid="exam-filters-count"]').exists()).toBe(false)
+    await wrapper.get('[data-testid="exam-filters-toggle"]').trigger('click')
+    await vi.waitFor(() => expect(wrapper.find('[data-testid="filter-status-draft"]').exists()).toBe(true))
+
+    await wrapper.get('[data-testid="filter-status-draft"]').trigger('click')
+    await flushPromises()
+
+    expect(lastQuery()).toMatchObject({ status: 'draft', page: 1 })
+    expect(wrapper.get('[data-testid="exam-filters-count"]').text()).toBe('(1)')
+  })
+
+  it('from the sm breakpoint, shows the filters and the CSV without a Filters button', async () => {
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+
+    const { wrapper } = await mountLog()
+
+    await vi.waitFor(() => expect(wrapper.find('[data-testid="exam-filters"]').exists()).toBe(true))
+    expect(wrapper.find('[data-testid="export-csv"]').exists()).toBe(true)
+    expect(wrapper.find('[data-testid="exam-filters-toggle"]').exists()).toBe(false)
+  })
+
   it('on a phone, the next page is asked for with the cursor of this page', async () => {
     window.innerWidth = 390
     vi.mocked(api.fetchExams).mockResolvedValue({ ...makeExamList([makeExam()], 60), nextCursor: 'after-page-1' })
