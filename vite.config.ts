@@ -88,24 +88,6 @@ function preloadTextFont(): Plugin {
   }
 }
 
-/**
- * Vuetify's LoaderSlot mounts a hidden progress bar in every card and text field, and each bar's intersection observer
- * measures its element as it mounts (getBoundingClientRect), so a first render forces a layout of the half-built page
- * once per card and field. The build mounts the bar only while the card or field shows it loading.
- */
-function progressBarOnlyWhileLoading(): Plugin {
-  const bar = '}) || _createVNode(VProgressLinear, {'
-  return {
-    name: 'plumbline:progress-bar-only-while-loading',
-    apply: 'build',
-    transform(code, id) {
-      if (!/[\\/]vuetify[\\/]lib[\\/]composables[\\/]loader\.js$/.test(id)) return null
-      if (!code.includes(bar)) throw new Error("Vuetify's LoaderSlot changed: review progressBarOnlyWhileLoading in vite.config.ts")
-      return code.replace(bar, '}) || props.active && _createVNode(VProgressLinear, {')
-    },
-  }
-}
-
 // `vite build --ssr`: the server and shared/ as one ES module for plain `node` (tsx stays a development tool). Packages
 // stay imports, so `npm ci --omit=dev` provides them; `#shared/*` and the .ts extensions are resolved here.
 const serverBuild: UserConfig = {
@@ -120,7 +102,6 @@ const app: ViteUserConfig = {
     vuetify({ autoImport: true }),
     iconSubset(),
     preloadTextFont(),
-    progressBarOnlyWhileLoading(),
     // .br and .gz beside each text asset of 1 KB or more, for the server to send to browsers that accept them; a
     // smaller file gains less than a packet, and one the packing would not shrink gets no copy either.
     compression({ algorithms: ['brotliCompress', 'gzip'], include: /\.(html|css|js|mjs|json|svg|webmanifest|txt)$/, threshold: 1024 }),
