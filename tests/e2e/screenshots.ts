@@ -28,6 +28,8 @@ async function settle(page: Page, ready: string) {
     .locator(loading)
     .first()
     .waitFor({ state: 'detached', ...WAIT })
+  // The icon font is added once the page is idle (src/plugins/icon-font.ts): wait until it has loaded too.
+  await page.waitForFunction(() => [...document.fonts].some((f) => f.family.includes('Material Design Icons') && f.status === 'loaded'), undefined, WAIT)
   await page.evaluate('document.fonts.ready.then(() => true)')
 }
 
