@@ -177,9 +177,9 @@ const app: ViteUserConfig = {
   test: {
     // bcrypt at the production work factor costs ~0.7 s per hash in pure JS; config.ts allows less only under NODE_ENV=test.
     env: { BCRYPT_COST: '5' },
-    // Browser tests mostly wait (for Chromium, the service worker, the sync engine's retries), so four workers
+    // Browser tests mostly wait (for Chromium, the service worker, the sync engine's retries), so a third worker
     // keeps both cores busy; every project shares these workers.
-    maxWorkers: 4,
+    maxWorkers: 3,
     projects: [
       {
         extends: true,

@@ -52,6 +52,7 @@ describe('closing the loop on a phone', () => {
   it("the resident finds the followed patient in the log, follows the timeline and adds a central-line reference to today's exam", async () => {
     const page = await phoneAs(RESIDENT)
     await page.goto(`${demo.server.url}/exams`)
+    await page.getByTestId('exam-filters-toggle').click()
     await page.getByTestId('filter-patient').locator('input').fill(FOLLOWED)
     await page.getByTestId('filter-patient').locator('input').press('Enter')
     await page.getByTestId('exam-log-timeline-link').click()
