@@ -4,18 +4,20 @@ import { fileURLToPath, pathToFileURL, URL } from 'node:url'
 import type { Plugin, UserConfig } from 'vite'
 import { defineConfig, type ViteUserConfig } from 'vitest/config'
 import vue from '@vitejs/plugin-vue'
-import { postgresBin } from './tests/server/postgres-bin.ts'
+import { postgresUnavailable } from './tests/server/postgres-bin.ts'
 import vuetify from 'vite-plugin-vuetify'
 import { VitePWA } from 'vite-plugin-pwa'
 import { compression } from 'vite-plugin-compression2'
 
-// The server-pg project needs PostgreSQL's programs (Debian: package postgresql); without them it is skipped, once, aloud.
-const postgresInstalled = Boolean(postgresBin())
+// The server-pg project needs PostgreSQL's programs (Debian: package postgresql) and, as root, an account to own its
+// cluster; without them it is skipped, once, aloud, with the reason.
+const postgresProblem = postgresUnavailable()
+const postgresInstalled = postgresProblem === null
 const warned = Symbol.for('plumbline.postgres-missing-warned')
 if (!postgresInstalled && process.env.VITEST && !process.env.VITEST_POOL_ID && !(globalThis as Record<symbol, unknown>)[warned]) {
   ;(globalThis as Record<symbol, unknown>)[warned] = true
   console.warn(
-    'server-pg: PostgreSQL is not installed (no initdb under /usr/lib/postgresql/*/bin or PG_BIN); skipping the server tests on PostgreSQL',
+    `server-pg: skipping the server tests on PostgreSQL: ${postgresProblem}`,
   )
 }
 
