@@ -6,6 +6,7 @@ import { membersOf, teamIdsOf } from '../users/team-members.ts'
 import { isAuthor } from './exam-rules.ts'
 import { blinded, blindingClause, closedRoundsExamined } from '../rounds/round-blinding.ts'
 import { whereKey } from './where-key.ts'
+import type { ReadFacts } from '../users/auth-state.ts'
 
 type Where = WhereOptions<ExamModel>
 
@@ -31,22 +32,23 @@ export interface ExamScope {
 
 const notDraft: Where = { status: { [Op.ne]: 'draft' } }
 
-export async function scopeOf(user: User): Promise<ExamScope> {
+/** `facts`: what the request's account statement read (users/auth-state.ts); without them, they are read here. */
+export async function scopeOf(user: User, facts?: ReadFacts): Promise<ExamScope> {
   const roles = new Set(user.roles)
   const recordsExams = roles.has('resident') || roles.has('attending')
   const teamIds = new Set(teamIdsOf(user))
-  const colleagues = roles.has('attending') ? await membersOf(teamIds) : new Set<string>()
+  const colleagues = !roles.has('attending') ? new Set<string>() : (facts?.teammates ?? (await membersOf(teamIds)))
   const clinical: Where[] = []
   if (recordsExams) clinical.push({ examinerId: user.id })
   // Attendings read their teams' residents: exams filed to their teams, and those their teams' members filed elsewhere.
   if (roles.has('attending'))
     clinical.push({ ...notDraft, [Op.or]: [{ teamId: { [Op.in]: [...teamIds] } }, { examinerId: { [Op.in]: [...colleagues] } }] })
   // Examiners of a closed calibration round may open each other's entries of it, one by one (server/rounds/round-blinding.ts).
-  const closedRounds = await closedRoundsExamined(user.id)
+  const closedRounds = facts?.closedRoundsExamined ?? (await closedRoundsExamined(user.id))
   const clinicalWhere: Where | null = clinical.length ? { [Op.or]: clinical } : null
   const programWhere: Where | null = roles.has('educator') ? notDraft : null
   // Entries of open calibration rounds are their authors' alone until the round closes (server/rounds/round-blinding.ts).
-  const blind = await blindingClause(user.id)
+  const blind = await blindingClause(user.id, facts?.openRounds)
   const teamCare: Where | null = roles.has('resident') && teamIds.size ? { ...notDraft, teamId: { [Op.in]: [...teamIds] } } : null
   return {
     care: blinded(teamCare && clinicalWhere ? { [Op.or]: [clinicalWhere, teamCare] } : clinicalWhere, blind),

@@ -12,7 +12,8 @@ export interface ExamRead {
 }
 
 export async function examRead(viewer: Viewer): Promise<ExamRead> {
-  const [scope, version] = await Promise.all([scopeOf(viewer.user), examDataVersion()])
+  const { facts } = viewer
+  const [scope, version] = await Promise.all([scopeOf(viewer.user, facts), facts?.dataVersion ?? examDataVersion()])
   // The pseudonym of a fixed text tells one mask (one server secret) from another without holding the secret.
   const context = `${version.names}|${viewer.mask('plumbline/cache')}`
   return {

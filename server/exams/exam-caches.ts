@@ -45,8 +45,6 @@ export function clearExamCaches(): void {
   caches?.answers.clear()
 }
 
-const asText = (value: unknown) => (value instanceof Date ? value.toISOString() : String(value ?? ''))
-
 export interface ExamDataVersion {
   /** The last exam change: any exam inserted or changed. */
   exams: string
@@ -54,17 +52,30 @@ export interface ExamDataVersion {
   names: string
 }
 
+const [exams, users, teams, seq, updated] = ['exams', 'users', 'teams', 'syncSeq', 'updatedAt'].map(quoteName)
+
 /**
- * What changes with every write the exam answers show: any exam inserted or changed (its `syncSeq`, set by the
- * database's triggers, also on a change made behind the application's back; a countersignature and its superseding
- * are always written with their exam), a user or team renamed, the server's time zone. An index read and two reads
- * of small tables.
+ * What changes with every write the exam answers show, as three text columns of one SQL row (`e`, `u`, `t`): any exam
+ * inserted or changed (its `syncSeq`, set by the database's triggers, also on a change made behind the application's
+ * back; a countersignature and its superseding are always written with their exam), a user or team renamed. An index
+ * read and two reads of small tables; text on both databases, so the columns can join a UNION (users/auth-state.ts).
  */
+export const DATA_VERSION_COLUMNS = [
+  `CAST((SELECT MAX(${seq}) FROM ${exams}) AS TEXT)`,
+  `CAST((SELECT MAX(${updated}) FROM ${users}) AS TEXT)`,
+  `CAST((SELECT MAX(${updated}) FROM ${teams}) AS TEXT)`,
+] as const
+
+/** The version of the three columns of DATA_VERSION_COLUMNS, with the time zone signature times are shown in. */
+export function dataVersionOf(exams: string | null, users: string | null, teams: string | null): ExamDataVersion {
+  return { exams: exams ?? '', names: [users ?? '', teams ?? '', serverTimeZone()].join('|') }
+}
+
+/** The data version on its own, for a reader whose request did not read it with the account (middleware/auth.ts). */
 export async function examDataVersion(): Promise<ExamDataVersion> {
-  const [exams, users, teams, seq, updated] = ['exams', 'users', 'teams', 'syncSeq', 'updatedAt'].map(quoteName)
-  const sql = `SELECT (SELECT MAX(${seq}) FROM ${exams}) AS e, (SELECT MAX(${updated}) FROM ${users}) AS u, (SELECT MAX(${updated}) FROM ${teams}) AS t`
-  const [row] = await ExamModel.sequelize!.query<Record<'e' | 'u' | 't', unknown>>(sql, { type: QueryTypes.SELECT })
-  return { exams: asText(row?.e), names: [row?.u, row?.t, serverTimeZone()].map(asText).join('|') }
+  const sql = `SELECT ${DATA_VERSION_COLUMNS.map((column, i) => `${column} AS ${quoteName('eut'[i]!)}`).join(', ')}`
+  const [row] = await ExamModel.sequelize!.query<Record<'e' | 'u' | 't', string | null>>(sql, { type: QueryTypes.SELECT })
+  return dataVersionOf(row?.e ?? null, row?.u ?? null, row?.t ?? null)
 }
 
 /** Where a read path keeps presented exams, and what besides the row its presentation depends on (names, time zone, mask). */

@@ -1,5 +1,6 @@
 import { Op, type WhereOptions } from 'sequelize'
 import { EXAM_COUNT_CAP, type Exam, type ExamList, type ExamListQuery } from '#shared/schemas/exam'
+import type { ReadFacts } from '../users/auth-state.ts'
 import type { User } from '#shared/schemas/user'
 import { AppError, invalidInput } from '../errors.ts'
 import { ExamModel } from '../models/index.ts'
@@ -14,6 +15,8 @@ import { afterCursor, cursorAfter, decodeCursor, orderOf } from './exam-keyset.t
 export interface Viewer {
   user: User
   mask: (patientCode: string) => string
+  /** What the request read with the account (middleware/auth.ts `readFacts`): spares a cached read its own queries. */
+  facts?: ReadFacts
 }
 
 const invalid = (field: string, message: string) => invalidInput({ [field]: message })

@@ -2,7 +2,7 @@ import { Router, type Request, type Response } from 'express'
 import { z } from 'zod'
 import { estimateContext, estimateWith } from '../settings/settings-estimate.ts'
 import { ExamFindingsSchema, ExamInputSchema, ExamListQuerySchema, ExamPatchSchema } from '#shared/schemas/exam'
-import { currentUser, requireRole } from '../middleware/auth.ts'
+import { currentUser, readFacts, requireRole } from '../middleware/auth.ts'
 import { requestNotifier, type SupervisionRouterOptions } from '../supervision/supervision.routes.ts'
 import { patientCodeMask } from './exam-access.ts'
 import { getExam, listExams, type Viewer } from './exam-queries.ts'
@@ -18,7 +18,7 @@ export function examsRouter(options: SupervisionRouterOptions): Router {
   const router = Router()
   const mask = patientCodeMask(options.secret)
   const notifier = requestNotifier(options)
-  const viewer = (res: Response): Viewer => ({ user: currentUser(res), mask })
+  const viewer = (res: Response): Viewer => ({ user: currentUser(res), mask, facts: readFacts(res) })
   const idOf = (req: Request) => IdParamsSchema.parse(req.params).id
   const readers = requireRole('resident', 'attending', 'educator')
   const authors = requireRole('resident', 'attending')

@@ -2,13 +2,14 @@ import type { NextFunction, Request, Response } from 'express'
 import type { Role, User } from '#shared/schemas/user'
 import { verifyAccessToken } from '../auth/tokens.ts'
 import { AppError } from '../errors.ts'
-import { getAuthState } from '../users/auth-state.ts'
+import { getAuthState, type ReadFacts } from '../users/auth-state.ts'
 
 /**
  * Verifies the bearer token and loads the account, which must still be active: a deactivated account's access tokens
  * (15 minutes at most, ACCESS_TTL_SECONDS) stop working at its next request. A token issued before the password last
  * changed (a reset link was used) is refused too, so a reset ends every session at once, not only the refresh ones.
  * The account, roles and teams come from one query per request (users/auth-state.ts): nothing about them is cached.
+ * The same query reads what exam reads are scoped and cached by (`readFacts`).
  */
 export function requireAuth(secret: string) {
   return async (req: Request, res: Response, next: NextFunction) => {
@@ -24,6 +25,7 @@ export function requireAuth(secret: string) {
       throw new AppError('invalid-token', 401, 'Your session is not valid; sign in again')
     }
     res.locals.user = state.user
+    res.locals.readFacts = state.facts
     next()
   }
 }
@@ -32,6 +34,11 @@ export function currentUser(res: Response): User {
   const user = res.locals.user as User | undefined
   if (!user) throw new AppError('not-signed-in', 401, 'Sign in to continue')
   return user
+}
+
+/** What the account's statement read besides the account, for exam reads (exams/exam-answers.ts); absent without requireAuth. */
+export function readFacts(res: Response): ReadFacts | undefined {
+  return res.locals.readFacts as ReadFacts | undefined
 }
 
 /** Deny by default: the request passes only when the account holds one of the roles. */

@@ -10,12 +10,13 @@ type Where = WhereOptions<ExamModel>
  * Blinding of calibration rounds: while a round is open, its entries are readable by their author only — not by
  * the other examiners, not by the author's attendings, not by educators (the round's educator follows progress on
  * the round itself, without values). The clause is added to every exam scope (lists, single reads, sync pull).
- * Null when no round is open, so the usual queries stay as they are.
+ * Null when no round is open, so the usual queries stay as they are. `openRounds`: the open rounds' ids when the
+ * request already read them (users/auth-state.ts).
  */
-export async function blindingClause(userId: string): Promise<Where | null> {
-  const open = await RoundModel.findAll({ attributes: ['id'], where: { status: 'open' }, raw: true })
+export async function blindingClause(userId: string, openRounds?: string[]): Promise<Where | null> {
+  const open = openRounds ?? (await RoundModel.findAll({ attributes: ['id'], where: { status: 'open' }, raw: true })).map((r) => r.id)
   if (!open.length) return null
-  return { [Op.or]: [{ roundId: null }, { roundId: { [Op.notIn]: open.map((r) => r.id) } }, { examinerId: userId }] }
+  return { [Op.or]: [{ roundId: null }, { roundId: { [Op.notIn]: open } }, { examinerId: userId }] }
 }
 
 /**

@@ -7,7 +7,7 @@ import { patientCodeMask } from '../exams/exam-access.ts'
 import { examRead } from '../exams/exam-answers.ts'
 import { examCaches } from '../exams/exam-caches.ts'
 import type { MailDeps } from '../mail/mailer.ts'
-import { currentUser, requireRole } from '../middleware/auth.ts'
+import { currentUser, readFacts, requireRole } from '../middleware/auth.ts'
 import { countersignExam } from './countersign.service.ts'
 import { examHistory, examSignatures } from './exam-records.service.ts'
 import { createNotifier, type Notifier } from './notifications.ts'
@@ -49,7 +49,7 @@ export function supervisionRouter(options: SupervisionRouterOptions): Router {
   router.get('/exams/:id/signatures', async (req, res) => res.json(await examSignatures(user(res), idOf(req))))
   router.get('/exams/:id/history', async (req, res) => res.json(await examHistory({ user: user(res), mask }, idOf(req))))
   router.get('/signoff-queue', attendings, async (req, res) => {
-    const [query, read] = [SignoffQueueQuerySchema.parse(req.query), await examRead({ user: user(res), mask })]
+    const [query, read] = [SignoffQueueQuerySchema.parse(req.query), await examRead({ user: user(res), mask, facts: readFacts(res) })]
     await examCaches().answers.send(req, res, read.keyOf('signoff-queue', query), () => signoffQueue(user(res), query, read.cache))
   })
   router.get('/signoff-queue/count', attendings, async (_req, res) => res.json(await signoffCount(user(res))))

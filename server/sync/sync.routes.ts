@@ -1,7 +1,7 @@
 import { Router } from 'express'
 import { SyncPullQuerySchema } from '#shared/schemas/sync'
 import { patientCodeMask } from '../exams/exam-access.ts'
-import { currentUser, requireRole } from '../middleware/auth.ts'
+import { currentUser, readFacts, requireRole } from '../middleware/auth.ts'
 import { pullChanges } from './sync-pull.service.ts'
 import { examRead } from '../exams/exam-answers.ts'
 import { examCaches } from '../exams/exam-caches.ts'
@@ -17,7 +17,7 @@ export function syncRouter(options: { secret: string }): Router {
     res.json({ results: await pushChanges(currentUser(res), SyncBatchSchema.parse(req.body).changes) }),
   )
   router.get('/pull', requireRole('resident', 'attending', 'educator'), async (req, res) => {
-    const [query, viewer] = [SyncPullQuerySchema.parse(req.query), { user: currentUser(res), mask }]
+    const [query, viewer] = [SyncPullQuerySchema.parse(req.query), { user: currentUser(res), mask, facts: readFacts(res) }]
     const read = await examRead(viewer)
     await examCaches().answers.send(req, res, read.keyOf('pull', query), () => pullChanges(viewer, query, read))
   })
