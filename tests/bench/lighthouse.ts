@@ -1,13 +1,16 @@
 // Lighthouse (mobile form factor, simulated 4G throttling) against the built app served as in production: the sign-in
 // page on a first visit, and the exam log of a signed-in resident loaded cold. Prints the four category scores beside
 // the goals, the paint metrics and whatever keeps accessibility or best practices from full marks. Run:
-// npm run bench:lighthouse (builds first when dist/ is missing).
+// npm run bench:lighthouse [-- /sign-in] [-- --runs=5] (builds first when dist/ is missing). Each page is audited five
+// times and the median run printed, as Lighthouse's own guidance advises ("Score Variability", docs/variability.md in
+// GoogleChrome/lighthouse: the median of five runs is about twice as stable as one), with every run's score beside it.
 import { spawnSync } from 'node:child_process'
 import { existsSync, mkdtempSync, writeFileSync } from 'node:fs'
 import { cpus, tmpdir } from 'node:os'
 import path from 'node:path'
 import { launch, type LaunchedChrome } from 'chrome-launcher'
 import lighthouse from 'lighthouse'
+import { computeMedianRun, filterToValidRuns } from 'lighthouse/core/lib/median-run.js'
 import puppeteer from 'puppeteer-core'
 import { startBenchServer } from './bench-server.ts'
 
@@ -66,10 +69,12 @@ type Report = Awaited<ReturnType<typeof audit>>
 
 const reportDir = mkdtempSync(path.join(tmpdir(), 'plumbline-lighthouse-reports-'))
 
-function print(page: Page, lhr: Report) {
+function print(page: Page, lhr: Report, runs: Report[]) {
   const reportFile = path.join(reportDir, `${page.path.replace(/\W+/g, '') || 'root'}.json`)
   writeFileSync(reportFile, JSON.stringify(lhr))
   console.log(`\n${page.label}: ${lhr.finalDisplayedUrl} (Lighthouse ${lhr.lighthouseVersion}; full report ${reportFile})`)
+  const scores = runs.map((run) => Math.round((run.categories.performance?.score ?? 0) * 100))
+  console.log(`  median of ${runs.length} runs; performance in each run: ${scores.join(', ')}`)
   for (const id of CATEGORIES) {
     const score = Math.round((lhr.categories[id]?.score ?? 0) * 100)
     const goal = GOALS[id]
@@ -103,7 +108,8 @@ function examples(details: unknown): string {
   return text.map((line) => `\n      ${line.replace(/\s+/g, ' ').slice(0, 220)}`).join('')
 }
 
-const only = process.argv[2]
+const only = process.argv.slice(2).find((arg) => arg.startsWith('/'))
+const RUNS = Number(process.argv.find((arg) => arg.startsWith('--runs='))?.slice('--runs='.length) ?? 5)
 const PAGES: Page[] = [
   { label: 'Sign-in page, first visit', path: '/sign-in', signedIn: false },
   { label: 'Exam log, signed in (resident), cold cache', path: '/exams', signedIn: true },
@@ -111,7 +117,14 @@ const PAGES: Page[] = [
 
 async function auditAll(baseUrl: string) {
   console.log(`Mobile form factor, simulated throttling; ${cpus().length} CPUs (${cpus()[0]?.model}), Node ${process.version}`)
-  for (const page of PAGES.filter((p) => !only || p.path === only)) print(page, await audit(baseUrl, page))
+  for (const page of PAGES.filter((p) => !only || p.path === only)) {
+    const runs: Report[] = []
+    for (let i = 0; i < RUNS; i++) runs.push(await audit(baseUrl, page))
+    // A run Lighthouse could not measure (a trace without its navigation start) is left out rather than scored 0.
+    const valid = filterToValidRuns(runs)
+    if (!valid.length) throw new Error(`No run of ${page.path} could be measured: ${runs[0]?.runtimeError?.message ?? ''}`)
+    print(page, computeMedianRun(valid), valid)
+  }
 }
 
 // LIGHTHOUSE_BASE_URL audits a server that is already running (with the demo data) instead of starting one.
