@@ -106,7 +106,15 @@ async function warmUp(url: string, token?: string) {
   })
 }
 
+/** One request's time to the whole answer: the first of a URL is built afresh (no cached answer has its key yet). */
+async function timed(url: string, token?: string): Promise<number> {
+  const started = performance.now()
+  await encodingOf(url, token)
+  return performance.now() - started
+}
+
 async function load(url: string, token?: string) {
+  const coldMs = await timed(url, token)
   await warmUp(url, token)
   const result = await autocannon({
     url,
@@ -120,6 +128,7 @@ async function load(url: string, token?: string) {
     rps: result.requests.average,
     p99: answered ? result.latency.p99 : Infinity,
     failed: failed ? `  ${failed} failed (non-2xx, errors, timeouts)` : '',
+    coldMs,
   }
 }
 
@@ -171,7 +180,7 @@ try {
     const ratio = result.rps / baseline.rps
     const goals = [`p99 ≤ ${target.goal.p99Ms} ms ${mark(result.p99 <= target.goal.p99Ms)}`]
     if (target.goal.ratio) goals.unshift(`≥ ${target.goal.ratio} of bare ${mark(ratio >= target.goal.ratio)}`)
-    const line = `${pad(target.name, 40)} ${result.rps.toFixed(0).padStart(6)} req/s  p99 ${String(result.p99).padStart(5)} ms  ratio ${ratio.toFixed(2)}`
+    const line = `${pad(target.name, 40)} ${result.rps.toFixed(0).padStart(6)} req/s  p99 ${String(result.p99).padStart(5)} ms  ratio ${ratio.toFixed(2)}  first (built afresh) ${result.coldMs.toFixed(0)} ms`
     console.log(`${line}  ${await encodingOf(`${url}${target.path}`, target.token)}  goal: ${goals.join(', ')}${result.failed}`)
   }
 } finally {
