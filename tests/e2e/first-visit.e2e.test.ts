@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest'
+import { CAUTION_TEXT } from '#shared/domain/interpretation'
 import { useDemoBrowser } from './browser.ts'
 
 const demo = useDemoBrowser()
@@ -17,6 +18,23 @@ describe('the first visit in Chromium (built client, production server)', () => 
     await expect.poll(() => page.getByTestId('sign-in-email').isVisible(), WAIT).toBe(true)
 
     expect(await page.evaluate(() => (window as unknown as { violations: string[] }).violations)).toEqual([])
+    await page.close()
+  })
+
+  it('paints the app bar and the standing caution from the page itself, before any script, and the app then replaces them', async () => {
+    const context = await demo.browser.newContext({ javaScriptEnabled: false })
+    const bare = await context.newPage()
+    await bare.goto(`${demo.server.url}/exams`)
+
+    expect(await bare.locator('.boot-bar').textContent()).toBe('Plumbline')
+    expect((await bare.getByRole('note').textContent())?.trim()).toBe(CAUTION_TEXT)
+    expect(await bare.getByRole('note').isVisible()).toBe(true)
+    await context.close()
+
+    const page = await demo.browser.newPage()
+    await page.goto(`${demo.server.url}/sign-in`)
+    await expect.poll(() => page.getByTestId('sign-in-email').isVisible(), WAIT).toBe(true)
+    expect(await page.locator('.boot-bar, .boot-caution').count()).toBe(0)
     await page.close()
   })
 
