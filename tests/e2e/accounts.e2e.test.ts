@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
-import { signInAs, useDemoBrowser } from './browser.ts'
+import { NO_SERVICE_WORKER, signInAs, useDemoBrowser } from './browser.ts'
 
 // Sign-in hashes a password and first visits load lazy chunks on a shared 2-core machine: wait generously.
 const WAIT = { timeout: 15_000 }
@@ -9,7 +9,7 @@ const WAIT = { timeout: 15_000 }
 const demo = useDemoBrowser()
 
 async function freshPage(width = 1280): Promise<Page> {
-  const context = await demo.browser.newContext({ viewport: { width, height: 800 } })
+  const context = await demo.browser.newContext({ ...NO_SERVICE_WORKER, viewport: { width, height: 800 } })
   return context.newPage()
 }
 

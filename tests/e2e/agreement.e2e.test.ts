@@ -1,6 +1,6 @@
 import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
-import { signInAs, useDemoBrowser } from './browser.ts'
+import { NO_SERVICE_WORKER, signInAs, useDemoBrowser } from './browser.ts'
 
 const EDUCATOR = 'educator@saltmarsh.test'
 const CAUTION_START = 'Estimate from physical examination, with a wide error band.'
@@ -11,7 +11,7 @@ const WAIT = { timeout: 15_000 }
 const demo = useDemoBrowser()
 
 async function openDashboard(width: number, height: number): Promise<Page> {
-  const context = await demo.browser.newContext({ viewport: { width, height } })
+  const context = await demo.browser.newContext({ ...NO_SERVICE_WORKER, viewport: { width, height } })
   const page = await context.newPage()
   await signInAs(page, demo.server.url, EDUCATOR)
   await expect.poll(() => new URL(page.url()).pathname, WAIT).not.toBe('/sign-in')
@@ -32,7 +32,7 @@ function drawnPixels(page: Page, selector: string) {
 
 describe('the agreement dashboard in Chromium', () => {
   it('the demo educator opens it from the menu and sees the Bland–Altman plot and the residents under-reading', async () => {
-    const context = await demo.browser.newContext({ viewport: { width: 1280, height: 900 } })
+    const context = await demo.browser.newContext({ ...NO_SERVICE_WORKER, viewport: { width: 1280, height: 900 } })
     const page = await context.newPage()
     await signInAs(page, demo.server.url, EDUCATOR)
 

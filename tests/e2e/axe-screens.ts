@@ -1,7 +1,7 @@
 import type { Browser } from 'playwright-core'
 import type { ExpectStatic } from 'vitest'
 import { WAIT, audit, type Tab } from './axe-audit.ts'
-import { signInAs } from './browser.ts'
+import { NO_SERVICE_WORKER, signInAs } from './browser.ts'
 
 export const VIEWPORTS = { phone: { width: 390, height: 844 }, desktop: { width: 1280, height: 800 } } as const
 export const THEMES = ['plumblineLight', 'plumblineDark'] as const
@@ -37,7 +37,7 @@ export async function go({ page, expect }: Tab, path: string): Promise<void> {
 /** A page of its own context, signed in as `account` (once: later loads restore the session) or on the sign-in page. */
 export async function tabFor(expect: ExpectStatic, browser: Browser, baseUrl: string, account?: string): Promise<Tab> {
   // axe is injected as a script of the test, which the app's Content-Security-Policy would rightly refuse.
-  const page = await (await browser.newContext({ bypassCSP: true })).newPage()
+  const page = await (await browser.newContext({ ...NO_SERVICE_WORKER, bypassCSP: true })).newPage()
   if (!account) {
     await page.goto(`${baseUrl}/sign-in`)
     return { page, expect }

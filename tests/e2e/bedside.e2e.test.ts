@@ -1,11 +1,11 @@
 import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
-import { signInAs, useDemoBrowser } from './browser.ts'
+import { NO_SERVICE_WORKER, signInAs, useDemoBrowser } from './browser.ts'
 
 const demo = useDemoBrowser()
 
 async function phonePage() {
-  const context = await demo.browser.newContext({ viewport: { width: 360, height: 740 }, hasTouch: true, isMobile: true })
+  const context = await demo.browser.newContext({ ...NO_SERVICE_WORKER, viewport: { width: 360, height: 740 }, hasTouch: true, isMobile: true })
   return context.newPage()
 }
 

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
-import { DEMO_PASSWORD, signInAs, useDemoBrowser } from './browser.ts'
+import { DEMO_PASSWORD, NO_SERVICE_WORKER, signInAs, useDemoBrowser } from './browser.ts'
 
 const demo = useDemoBrowser()
 const RESIDENT = 'resident@saltmarsh.test'
@@ -13,7 +13,7 @@ const title = (page: Page) => page.getByTestId('step-title').textContent()
 const code = () => `SM-CL-${randomUUID().slice(0, 6).toUpperCase()}`
 
 async function phonePage() {
-  const context = await demo.browser.newContext({ viewport: { width: 360, height: 740 }, hasTouch: true, isMobile: true })
+  const context = await demo.browser.newContext({ ...NO_SERVICE_WORKER, viewport: { width: 360, height: 740 }, hasTouch: true, isMobile: true })
   const page = await context.newPage()
   await signInAs(page, demo.server.url, RESIDENT)
   await expect.poll(() => new URL(page.url()).pathname, WAIT).toBe('/')
@@ -112,7 +112,7 @@ describe('the clinical reading of an exam in Chromium', () => {
       body: JSON.stringify(exam),
     })
     expect(created.status).toBe(201)
-    const context = await demo.browser.newContext({ viewport: { width: 1280, height: 800 } })
+    const context = await demo.browser.newContext({ ...NO_SERVICE_WORKER, viewport: { width: 1280, height: 800 } })
     const page = await context.newPage()
     await signInAs(page, demo.server.url, RESIDENT)
     await expect.poll(() => page.getByTestId('nav-exams').isVisible(), WAIT).toBe(true)

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import type { Browser, BrowserContext } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { DEMO_PASSWORD, launchChromium, signInAs, startDemoServer } from './browser.ts'
+import { DEMO_PASSWORD, launchChromium, NO_SERVICE_WORKER, signInAs, startDemoServer } from './browser.ts'
 import { WORKED_EXAMPLE_FINDINGS } from '../../tests/shared/worked-example.ts'
 
 const RESIDENT = 'resident@saltmarsh.test'
@@ -65,7 +65,7 @@ afterAll(async () => {
 
 describe('the exam log in Chromium', () => {
   it('the resident finds the worked example in the log, opens it and copies the note', async () => {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 800 } })
+    const context = await browser.newContext({ ...NO_SERVICE_WORKER, viewport: { width: 1280, height: 800 } })
     await context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: server.url })
     const page = await signedInPage(context)
 
@@ -88,7 +88,7 @@ describe('the exam log in Chromium', () => {
   })
 
   it('the patient code in the table is a link in the theme primary, not the browser blue', async () => {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 800 } })
+    const context = await browser.newContext({ ...NO_SERVICE_WORKER, viewport: { width: 1280, height: 800 } })
     const page = await signedInPage(context)
 
     await page.goto(`${server.url}/exams`)
@@ -102,7 +102,7 @@ describe('the exam log in Chromium', () => {
 
   it('on a 390 × 844 phone, shows at least six compact rows on one screen, each with the CVP and its band', async () => {
     const height = 844
-    const context = await browser.newContext({ viewport: { width: 390, height }, isMobile: true, hasTouch: true })
+    const context = await browser.newContext({ ...NO_SERVICE_WORKER, viewport: { width: 390, height }, isMobile: true, hasTouch: true })
     const page = await signedInPage(context)
 
     await page.goto(`${server.url}/exams`)

@@ -1,13 +1,13 @@
 import { describe, expect, it } from 'vitest'
 import { CAUTION_TEXT } from '#shared/domain/interpretation'
-import { useDemoBrowser } from './browser.ts'
+import { NO_SERVICE_WORKER, useDemoBrowser } from './browser.ts'
 
 const demo = useDemoBrowser()
 const WAIT = { timeout: 15_000 }
 
 describe('the first visit in Chromium (built client, production server)', () => {
   it('the sign-in page breaks no rule of the Content-Security-Policy (no eval probe, no inline script)', async () => {
-    const page = await demo.browser.newPage()
+    const page = await demo.browser.newPage(NO_SERVICE_WORKER)
     await page.addInitScript(() => {
       const seen: string[] = []
       Object.assign(window, { violations: seen })
@@ -22,7 +22,7 @@ describe('the first visit in Chromium (built client, production server)', () => 
   })
 
   it('paints the app bar and the standing caution from the page itself, before any script, and the app then replaces them', async () => {
-    const context = await demo.browser.newContext({ javaScriptEnabled: false })
+    const context = await demo.browser.newContext({ ...NO_SERVICE_WORKER, javaScriptEnabled: false })
     const bare = await context.newPage()
     await bare.goto(`${demo.server.url}/exams`)
 
@@ -31,7 +31,7 @@ describe('the first visit in Chromium (built client, production server)', () => 
     expect(await bare.getByRole('note').isVisible()).toBe(true)
     await context.close()
 
-    const page = await demo.browser.newPage()
+    const page = await demo.browser.newPage(NO_SERVICE_WORKER)
     await page.goto(`${demo.server.url}/sign-in`)
     await expect.poll(() => page.getByTestId('sign-in-email').isVisible(), WAIT).toBe(true)
     expect(await page.locator('.boot-bar, .boot-caution').count()).toBe(0)
@@ -39,7 +39,7 @@ describe('the first visit in Chromium (built client, production server)', () => 
   })
 
   it('shows the heading in Roboto and then loads the icon font, so the icons draw', async () => {
-    const page = await demo.browser.newPage()
+    const page = await demo.browser.newPage(NO_SERVICE_WORKER)
 
     await page.goto(`${demo.server.url}/sign-in`)
     await expect.poll(() => page.getByRole('heading', { name: 'Sign in to Plumbline' }).isVisible(), WAIT).toBe(true)

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import type { Page } from 'playwright-core'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { DEMO_PASSWORD, signInAs, useDemoBrowser } from './browser.ts'
+import { DEMO_PASSWORD, NO_SERVICE_WORKER, signInAs, useDemoBrowser } from './browser.ts'
 import { WORKED_EXAMPLE_FINDINGS } from '../../tests/shared/worked-example.ts'
 
 const demo = useDemoBrowser()
@@ -35,7 +35,7 @@ async function submitTodaysExam() {
 }
 
 async function phoneAs(email: string) {
-  const context = await demo.browser.newContext({ viewport: { width: 360, height: 740 }, hasTouch: true, isMobile: true })
+  const context = await demo.browser.newContext({ ...NO_SERVICE_WORKER, viewport: { width: 360, height: 740 }, hasTouch: true, isMobile: true })
   const page = await context.newPage()
   await signInAs(page, demo.server.url, email)
   await expect.poll(() => new URL(page.url()).pathname, WAIT).toBe('/')

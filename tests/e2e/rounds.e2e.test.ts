@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { signInAs, useDemoBrowser } from './browser.ts'
+import { NO_SERVICE_WORKER, signInAs, useDemoBrowser } from './browser.ts'
 
 const EDUCATOR = 'educator@saltmarsh.test'
 // Sign-in hashes a password and the first visit loads lazy chunks on a busy machine: allow generous waits.
@@ -9,7 +9,7 @@ const demo = useDemoBrowser()
 
 describe('calibration rounds in Chromium', () => {
   it('the educator opens the demo’s closed round and reads the ICC, the bias table and the missing entry, on a phone-width screen', async () => {
-    const context = await demo.browser.newContext({ viewport: { width: 360, height: 780 } })
+    const context = await demo.browser.newContext({ ...NO_SERVICE_WORKER, viewport: { width: 360, height: 780 } })
     const page = await context.newPage()
     await signInAs(page, demo.server.url, EDUCATOR)
     await expect.poll(() => new URL(page.url()).pathname, WAIT).toBe('/')

@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest'
-import { signInAs, useDemoBrowser } from './browser.ts'
+import { NO_SERVICE_WORKER, signInAs, useDemoBrowser } from './browser.ts'
 
 const demo = useDemoBrowser()
 // Sign-in verifies a bcrypt hash of production cost: on a loaded machine that takes longer than expect.poll's default second.
 const WAIT = { timeout: 10_000 }
 
 async function freshPage() {
-  const context = await demo.browser.newContext({ viewport: { width: 1280, height: 800 } })
+  const context = await demo.browser.newContext({ ...NO_SERVICE_WORKER, viewport: { width: 1280, height: 800 } })
   return context.newPage()
 }
 

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import type { Browser, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { DEMO_PASSWORD, launchChromium, signInAs, startDemoServer } from './browser.ts'
+import { DEMO_PASSWORD, launchChromium, NO_SERVICE_WORKER, signInAs, startDemoServer } from './browser.ts'
 import { WORKED_EXAMPLE_FINDINGS } from '../../tests/shared/worked-example.ts'
 
 const RESIDENT = 'resident@saltmarsh.test'
@@ -45,7 +45,7 @@ async function submitResidentExam() {
 }
 
 async function signedIn(email: string, navItem: string) {
-  const context = await browser.newContext({ viewport: { width: 1280, height: 800 } })
+  const context = await browser.newContext({ ...NO_SERVICE_WORKER, viewport: { width: 1280, height: 800 } })
   const page = await context.newPage()
   await signInAs(page, server.url, email)
   await expect.poll(() => page.getByTestId(navItem).isVisible(), WAIT).toBe(true)
