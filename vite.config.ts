@@ -216,9 +216,11 @@ const app: ViteUserConfig = {
           environment: 'node',
           include: ['tests/server/**/*.test.ts'],
           globalSetup: ['tests/server/template-database.ts'],
-          // A worker per file would import Express, Sequelize and sharp again each time; see tests/server/fresh-modules.ts.
+          // A worker per file would import Express, Sequelize, sharp and our own modules again each time. Nothing a file
+          // leaves behind reaches the next: the server keeps its caches per database (a WeakMap keyed by the Sequelize
+          // instance) and every test opens a database of its own (DEVELOPERS.md, "Testing").
           isolate: false,
-          setupFiles: ['tests/server/fresh-modules.ts'],
+          setupFiles: ['tests/server/file-databases.ts'],
           testTimeout: 20_000,
         },
       },
@@ -236,7 +238,7 @@ const app: ViteUserConfig = {
           env: { TEST_DATABASE: 'postgres' },
           globalSetup: ['tests/server/postgres-cluster.ts'],
           isolate: false,
-          setupFiles: ['tests/server/fresh-modules.ts'],
+          setupFiles: ['tests/server/file-databases.ts'],
           // Every query is a round trip to another process: a test of many writes takes longer than on SQLite.
           testTimeout: 30_000,
           // A file's first database is a copy of the template, and the demo seed's many writes are round trips.

@@ -4,8 +4,8 @@ import type { Sequelize } from 'sequelize'
 import { inject } from 'vitest'
 import { POSTGRES_TEMPLATE } from './database-kind.ts'
 
-// The databases a test file made on the server-pg project's cluster, dropped when the file ends (fresh-modules.ts).
-// Kept on globalThis: fresh-modules.ts and the test file see different copies of this module (vi.resetModules()).
+// The databases a test file made on the server-pg project's cluster, dropped when the file ends (file-databases.ts).
+// Kept on globalThis, so that a second copy of this module (a file that resets modules) sees the same list.
 interface FileState {
   admin?: pg.Client
   names: string[]
