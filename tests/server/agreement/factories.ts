@@ -44,6 +44,18 @@ export async function storeExam(e: StoredExam): Promise<ExamModel> {
   })
 }
 
+/** Stores many exams at once, in one transaction, and derives their patients' pairs once, after them all. */
+export async function storeExams(exams: StoredExam[]): Promise<void> {
+  const sequelize = ExamModel.sequelize!
+  await sequelize.transaction(async (transaction) => {
+    const rows = await ExamModel.bulkCreate(exams.map(examValues), { transaction })
+    await derivePairs(
+      rows.map((row) => row.patientCode),
+      { sequelize, transaction },
+    )
+  })
+}
+
 export async function summaryAs(app: App, auth: string, query: Record<string, string> = {}) {
   const res = await request(app).get('/api/agreement/summary').set('Authorization', auth).query(query)
   return { res, summary: res.status === 200 ? AgreementSummarySchema.parse(res.body) : undefined }
@@ -78,12 +90,13 @@ export async function storeRound(r: StoredRound): Promise<string> {
   const codes = r.subjects.map((_, i) => `RC-${id.slice(0, 4)}-${i}`)
   await RoundPatientCodeModel.bulkCreate(codes.map((patientCode, position) => ({ roundId: id, patientCode, position })))
   await RoundExaminerModel.bulkCreate(r.examinerIds.map((examinerId, position) => ({ roundId: id, examinerId, position })))
-  for (const [i, row] of r.subjects.entries()) {
-    for (const [j, heightCm] of row.entries()) {
-      if (heightCm === null) continue
+  const entries = r.subjects.flatMap((row, i) =>
+    row.flatMap((heightCm, j) => {
+      if (heightCm === null) return []
       const at = r.closedAt - DAY + j * MINUTE
-      await storeExam({ examinerId: r.examinerIds[j]!, teamId: r.teamId, at, heightCm, patientCode: codes[i], findings: { roundId: id } })
-    }
-  }
+      return [{ examinerId: r.examinerIds[j]!, teamId: r.teamId, at, heightCm, patientCode: codes[i], findings: { roundId: id } }]
+    }),
+  )
+  await storeExams(entries)
   return id
 }

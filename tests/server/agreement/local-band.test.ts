@@ -5,7 +5,7 @@ import { invalidateObserverTerm } from '../../../server/agreement/observer-term.
 import { makeExamInput } from '../factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
 import { saveSettings } from '../settings/settings-calls.ts'
-import { DAY, MINUTE, storeExam } from './factories.ts'
+import { DAY, MINUTE, storeExams } from './factories.ts'
 
 let app: Awaited<ReturnType<typeof makeTestApp>>['app']
 
@@ -18,11 +18,15 @@ beforeEach(async () => {
 async function storeThirtyPairs(teamId: string) {
   const resident = await makeCaller({ roles: ['resident'], teamIds: [teamId] })
   const attending = await makeCaller({ roles: ['attending'], teamIds: [teamId] })
-  for (let i = 0; i < 30; i++) {
-    const at = Date.now() - (i + 1) * DAY
-    await storeExam({ teamId, patientCode: `SM-9${i}`, examinerId: resident.user.id, at, heightCm: i % 2 ? 2 : 6 })
-    await storeExam({ teamId, patientCode: `SM-9${i}`, examinerId: attending.user.id, at: at + 30 * MINUTE, heightCm: 4 })
-  }
+  await storeExams(
+    Array.from({ length: 30 }, (_, i) => {
+      const at = Date.now() - (i + 1) * DAY
+      return [
+        { teamId, patientCode: `SM-9${i}`, examinerId: resident.user.id, at, heightCm: i % 2 ? 2 : 6 },
+        { teamId, patientCode: `SM-9${i}`, examinerId: attending.user.id, at: at + 30 * MINUTE, heightCm: 4 },
+      ]
+    }).flat(),
+  )
 }
 
 const settingsAs = async (auth: string) => SettingsInForceSchema.parse((await request(app).get('/api/settings').set('Authorization', auth)).body)

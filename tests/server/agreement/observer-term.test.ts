@@ -4,7 +4,7 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import { invalidateObserverTerm, observerTerm } from '../../../server/agreement/observer-term.ts'
 import { AgreementPairModel } from '../../../server/models/index.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
-import { DAY, MINUTE, storeExam, storeRound } from './factories.ts'
+import { DAY, MINUTE, storeExams, storeRound } from './factories.ts'
 
 let app: Awaited<ReturnType<typeof makeTestApp>>['app']
 
@@ -26,13 +26,17 @@ async function storePairs(count: number, { spreadCm = 2, daysAgo = 1, secondIncl
   const team = await makeTeam()
   const resident = await makeCaller({ roles: ['resident'], teamIds: [team.id] })
   const attending = await makeCaller({ roles: ['attending'], teamIds: [team.id] })
-  for (let i = 0; i < count; i++) {
-    const at = Date.now() - (daysAgo + i) * DAY
-    const common = { teamId: team.id, patientCode: `SM-${daysAgo}-${secondInclinationDeg}-${i}` }
-    await storeExam({ ...common, examinerId: resident.user.id, at, heightCm: i % 2 ? 4 - spreadCm : 4 + spreadCm })
-    const findings = { inclinationDeg: secondInclinationDeg }
-    await storeExam({ ...common, examinerId: attending.user.id, at: at + 30 * MINUTE, heightCm: 4, findings })
-  }
+  const findings = { inclinationDeg: secondInclinationDeg }
+  await storeExams(
+    Array.from({ length: count }, (_, i) => {
+      const at = Date.now() - (daysAgo + i) * DAY
+      const common = { teamId: team.id, patientCode: `SM-${daysAgo}-${secondInclinationDeg}-${i}` }
+      return [
+        { ...common, examinerId: resident.user.id, at, heightCm: i % 2 ? 4 - spreadCm : 4 + spreadCm },
+        { ...common, examinerId: attending.user.id, at: at + 30 * MINUTE, heightCm: 4, findings },
+      ]
+    }).flat(),
+  )
 }
 
 /** Three examiners read every subject as h − 2, h, h + 2: each subject's within SD is 2 cm. */

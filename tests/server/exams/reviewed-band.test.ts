@@ -3,7 +3,7 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import { computeEstimate } from '#shared/domain/estimate'
 import { ExamFindingsSchema, ExamSchema, type ReviewedBand } from '#shared/schemas/exam'
 import { invalidateObserverTerm } from '../../../server/agreement/observer-term.ts'
-import { DAY, MINUTE, storeExam } from '../agreement/factories.ts'
+import { DAY, MINUTE, storeExams } from '../agreement/factories.ts'
 import { makeExamInput, recordExam } from '../factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
 import { push } from '../sync/sync-calls.ts'
@@ -24,11 +24,15 @@ async function ward() {
 async function storeThirtyPairs(teamId: string) {
   const resident = await makeCaller({ roles: ['resident'], teamIds: [teamId] })
   const attending = await makeCaller({ roles: ['attending'], teamIds: [teamId] })
-  for (let i = 0; i < 30; i++) {
-    const at = Date.now() - (i + 2) * DAY
-    await storeExam({ teamId, patientCode: `SM-8${i}`, examinerId: resident.user.id, at, heightCm: i % 2 ? 2 : 6 })
-    await storeExam({ teamId, patientCode: `SM-8${i}`, examinerId: attending.user.id, at: at + 30 * MINUTE, heightCm: 4 })
-  }
+  await storeExams(
+    Array.from({ length: 30 }, (_, i) => {
+      const at = Date.now() - (i + 2) * DAY
+      return [
+        { teamId, patientCode: `SM-8${i}`, examinerId: resident.user.id, at, heightCm: i % 2 ? 2 : 6 },
+        { teamId, patientCode: `SM-8${i}`, examinerId: attending.user.id, at: at + 30 * MINUTE, heightCm: 4 },
+      ]
+    }).flat(),
+  )
   invalidateObserverTerm()
 }
 

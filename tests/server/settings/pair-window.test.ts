@@ -1,6 +1,6 @@
 import { beforeEach, describe, expect, it } from 'vitest'
 import { observerTerm } from '../../../server/agreement/observer-term.ts'
-import { DAY, MINUTE, pairsAs, storeExam } from '../agreement/factories.ts'
+import { DAY, MINUTE, pairsAs, storeExam, storeExams } from '../agreement/factories.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
 import { saveSettings } from './settings-calls.ts'
 
@@ -40,11 +40,15 @@ describe('the pairing window setting', () => {
 
   it('a wider window that brings the deployment to 30 pairs switches the observer term of new estimates to the local spread at once', async () => {
     const { team, resident, attending, admin } = await ward()
-    for (let i = 0; i < 30; i++) {
-      const at = Date.now() - (i + 1) * DAY
-      await storeExam({ teamId: team.id, patientCode: `SM-8${i}`, examinerId: resident.user.id, at, heightCm: i % 2 ? 2 : 6 })
-      await storeExam({ teamId: team.id, patientCode: `SM-8${i}`, examinerId: attending.user.id, at: at + 150 * MINUTE, heightCm: 4 })
-    }
+    await storeExams(
+      Array.from({ length: 30 }, (_, i) => {
+        const at = Date.now() - (i + 1) * DAY
+        return [
+          { teamId: team.id, patientCode: `SM-8${i}`, examinerId: resident.user.id, at, heightCm: i % 2 ? 2 : 6 },
+          { teamId: team.id, patientCode: `SM-8${i}`, examinerId: attending.user.id, at: at + 150 * MINUTE, heightCm: 4 },
+        ]
+      }).flat(),
+    )
     const before = await observerTerm()
 
     await saveSettings(app, admin.auth, { pairWindowMinutes: 180 })
