@@ -246,6 +246,46 @@ describe('ExamLogView', () => {
     expect(wrapper.find('[data-testid="exam-table"] tbody tr').text()).toContain('SM-0400')
   })
 
+  it('a read still waiting for its answer when a sync starts is read again once that sync ends', async () => {
+    await clearDevice()
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam({ patientCode: 'SM-0401' })]))
+    const { wrapper } = await mountLog()
+    await flushPromises()
+    let answer!: (list: ReturnType<typeof makeExamList>) => void
+    vi.mocked(api.fetchExams).mockReturnValueOnce(new Promise((resolve) => (answer = resolve)))
+    await wrapper.find('[data-testid="filter-status-draft"]').trigger('click')
+    const sync = useSyncStore()
+
+    sync.syncing = true
+    await flushPromises()
+    // answered before the sync's push reached the server
+    answer(makeExamList([makeExam({ patientCode: 'SM-0401', status: 'draft' })]))
+    await flushPromises()
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam({ patientCode: 'SM-0402', status: 'draft' })]))
+    sync.syncing = false
+    sync.lastSyncAt = '2026-03-14T10:00:00.000Z'
+
+    await vi.waitFor(() => expect(wrapper.find('[data-testid="exam-table"] tbody').text()).toContain('SM-0402'))
+    expect(lastQuery()).toMatchObject({ status: 'draft' })
+  })
+
+  it('a sync that overlapped no read, with nothing shown from the device, does not read the log again', async () => {
+    await clearDevice()
+    vi.mocked(api.fetchExams).mockResolvedValue(makeExamList([makeExam()]))
+    await mountLog()
+    await flushPromises()
+    const reads = vi.mocked(api.fetchExams).mock.calls.length
+    const sync = useSyncStore()
+
+    sync.syncing = true
+    await flushPromises()
+    sync.syncing = false
+    sync.lastSyncAt = '2026-03-14T10:00:00.000Z'
+    await flushPromises()
+
+    expect(vi.mocked(api.fetchExams).mock.calls.length).toBe(reads)
+  })
+
   it('when the server fails, shows the load error with a retry', async () => {
     vi.mocked(api.fetchExams).mockRejectedValue(httpError(500, 'internal', 'Something went wrong on the server'))
 
