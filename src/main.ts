@@ -1,9 +1,7 @@
 import './plugins/zod-jitless'
 import './styles/links.css'
 import { afterFirstPaint } from './plugins/first-paint'
-
-/** A new task: what comes after it is a task of its own, so input and painting can go between the two. */
-const nextTask = () => new Promise<void>((resolve) => setTimeout(resolve))
+import { nextTask } from './utils/tasks'
 
 // The app's code starts in three tasks rather than one long one (a phone's main thread stays free for input between
 // them): the framework, then the component library, then the app with its stores, schemas and router.

@@ -4,6 +4,7 @@ import { ExamListQuerySchema, type Exam, type ExamListQuery } from '#shared/sche
 import { serverUnreachable } from '@/api/client'
 import { fetchExam, fetchExams, submitExam, updateExam } from '@/api/exams'
 import type { UnsentState } from '@/db/local-exam-list'
+import { nextTask } from '@/utils/tasks'
 import { useSessionStore } from './session'
 
 export type ExamFilters = Pick<ExamListQuery, 'status' | 'patientCode' | 'from' | 'to'>
@@ -77,6 +78,8 @@ export const useExamsStore = defineStore('exams', () => {
     try {
       const asked = query.value
       const { list, local, syncedAt } = await fetchList(asked)
+      // The rows render in a task after the one that read and checked the answer: two shorter tasks on a phone.
+      await nextTask()
       if (request !== latestRequest) return
       exams.value = list.exams
       total.value = list.total
