@@ -1,5 +1,5 @@
-import { beforeEach, describe, expect, it } from 'vitest'
-import { mount } from '@vue/test-utils'
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
+import { mount, flushPromises } from '@vue/test-utils'
 import { createPinia, setActivePinia } from 'pinia'
 import { createMemoryHistory, createRouter } from 'vue-router'
 import { createVuetify } from 'vuetify'
@@ -34,6 +34,23 @@ describe('ExamLogList (the log on a phone)', () => {
     expect(row.get('[data-testid="status-submitted"]').text()).toBe('Submitted')
     // the worked example's band 9.2–18.2 reaches normal (5–10) and high (> 10), Cook 1990's categories
     expect(row.get(`[data-testid="categories-${exam.id}"]`).text()).toBe('Est. category: normal or high')
+  })
+
+  describe('a full page', () => {
+    afterEach(() => vi.useRealTimers())
+
+    it('draws the rows a phone screen holds at once and the rest of the page in the next task', async () => {
+      vi.useFakeTimers()
+      const exams = Array.from({ length: 25 }, (_, i) => makeExam({ patientCode: `SM-${String(i).padStart(4, '0')}` }))
+
+      const wrapper = mountList({ exams, total: 40 })
+
+      expect(wrapper.findAll('[data-testid^="exam-row-"]')).toHaveLength(10)
+      expect(wrapper.get('[data-testid="exam-list-range"]').text()).toBe('1–25 of 40')
+      await vi.runAllTimersAsync()
+      await flushPromises()
+      expect(wrapper.findAll('[data-testid^="exam-row-"]').map((row) => row.text().slice(0, 7))).toEqual(exams.map((e) => e.patientCode))
+    })
   })
 
   it('links each row to its exam', () => {
