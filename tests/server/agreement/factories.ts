@@ -7,6 +7,7 @@ import { derivePairs } from '../../../server/agreement/pair-derivation.ts'
 import { columnsOf } from '../../../server/exams/exam-record.ts'
 import { ExamModel, RoundExaminerModel, RoundModel, RoundPatientCodeModel } from '../../../server/models/index.ts'
 import { makeExamInput } from '../factories/exam.ts'
+import { makeCaller } from '../helpers.ts'
 
 type App = Parameters<typeof request>[0]
 
@@ -54,6 +55,25 @@ export async function storeExams(exams: StoredExam[]): Promise<void> {
       { sequelize, transaction },
     )
   })
+}
+
+/**
+ * 30 resident–attending pairs in the team at one inclination, one a day ending `firstDayAgo` days ago, the attending
+ * 30 minutes after the resident: the resident reads 2 and 6 cm in turn, the attending 4, so the differences alternate
+ * +2 and −2 cm (SD(d) = √(120/29)) and the server's error term becomes local.
+ */
+export async function storeThirtyPairs(teamId: string, { codePrefix, firstDayAgo }: { codePrefix: string; firstDayAgo: number }) {
+  const resident = await makeCaller({ roles: ['resident'], teamIds: [teamId] })
+  const attending = await makeCaller({ roles: ['attending'], teamIds: [teamId] })
+  await storeExams(
+    Array.from({ length: 30 }, (_, i) => {
+      const at = Date.now() - (i + firstDayAgo) * DAY
+      return [
+        { teamId, patientCode: `${codePrefix}${i}`, examinerId: resident.user.id, at, heightCm: i % 2 ? 2 : 6 },
+        { teamId, patientCode: `${codePrefix}${i}`, examinerId: attending.user.id, at: at + 30 * MINUTE, heightCm: 4 },
+      ]
+    }).flat(),
+  )
 }
 
 export async function summaryAs(app: App, auth: string, query: Record<string, string> = {}) {

@@ -5,7 +5,7 @@ import { invalidateObserverTerm } from '../../../server/agreement/observer-term.
 import { makeExamInput } from '../factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
 import { saveSettings } from '../settings/settings-calls.ts'
-import { DAY, MINUTE, storeExams } from './factories.ts'
+import { storeThirtyPairs } from './factories.ts'
 
 let app: Awaited<ReturnType<typeof makeTestApp>>['app']
 
@@ -14,20 +14,8 @@ beforeEach(async () => {
   invalidateObserverTerm()
 })
 
-/** 30 resident–attending pairs at one inclination whose differences alternate +2 and −2 cm. */
-async function storeThirtyPairs(teamId: string) {
-  const resident = await makeCaller({ roles: ['resident'], teamIds: [teamId] })
-  const attending = await makeCaller({ roles: ['attending'], teamIds: [teamId] })
-  await storeExams(
-    Array.from({ length: 30 }, (_, i) => {
-      const at = Date.now() - (i + 1) * DAY
-      return [
-        { teamId, patientCode: `SM-9${i}`, examinerId: resident.user.id, at, heightCm: i % 2 ? 2 : 6 },
-        { teamId, patientCode: `SM-9${i}`, examinerId: attending.user.id, at: at + 30 * MINUTE, heightCm: 4 },
-      ]
-    }).flat(),
-  )
-}
+/** 30 resident–attending pairs whose differences alternate +2 and −2 cm. */
+const storeLocalPairs = (teamId: string) => storeThirtyPairs(teamId, { codePrefix: 'SM-9', firstDayAgo: 1 })
 
 const settingsAs = async (auth: string) => SettingsInForceSchema.parse((await request(app).get('/api/settings').set('Authorization', auth)).body)
 
@@ -55,7 +43,7 @@ describe('GET /api/settings: the error term in force travels with the settings',
 
   it('with 30 routine pairs, is the local term with its n', async () => {
     const team = await makeTeam()
-    await storeThirtyPairs(team.id)
+    await storeLocalPairs(team.id)
     const { auth } = await makeCaller({ teamIds: [team.id] })
 
     const settings = await settingsAs(auth)
@@ -67,7 +55,7 @@ describe('GET /api/settings: the error term in force travels with the settings',
 describe('estimates use the same term the device was given', () => {
   it('a saved exam’s band uses σ = √(σ_exam² + σ_offset²) and says which term and n it used', async () => {
     const team = await makeTeam()
-    await storeThirtyPairs(team.id)
+    await storeLocalPairs(team.id)
     const author = await makeCaller({ teamIds: [team.id] })
     const term = (await settingsAs(author.auth)).observerTerm
 

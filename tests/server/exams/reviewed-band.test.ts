@@ -3,7 +3,7 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import { computeEstimate } from '#shared/domain/estimate'
 import { ExamFindingsSchema, ExamSchema, type ReviewedBand } from '#shared/schemas/exam'
 import { invalidateObserverTerm } from '../../../server/agreement/observer-term.ts'
-import { DAY, MINUTE, storeExams } from '../agreement/factories.ts'
+import { storeThirtyPairs } from '../agreement/factories.ts'
 import { makeExamInput, recordExam } from '../factories/exam.ts'
 import { makeCaller, makeTeam, makeTestApp } from '../helpers.ts'
 import { push } from '../sync/sync-calls.ts'
@@ -20,19 +20,9 @@ async function ward() {
   return { team, resident: await makeCaller({ teamIds: [team.id] }) }
 }
 
-/** 30 resident–attending pairs at one inclination, differences ±2 cm: the server's error term becomes local. */
-async function storeThirtyPairs(teamId: string) {
-  const resident = await makeCaller({ roles: ['resident'], teamIds: [teamId] })
-  const attending = await makeCaller({ roles: ['attending'], teamIds: [teamId] })
-  await storeExams(
-    Array.from({ length: 30 }, (_, i) => {
-      const at = Date.now() - (i + 2) * DAY
-      return [
-        { teamId, patientCode: `SM-8${i}`, examinerId: resident.user.id, at, heightCm: i % 2 ? 2 : 6 },
-        { teamId, patientCode: `SM-8${i}`, examinerId: attending.user.id, at: at + 30 * MINUTE, heightCm: 4 },
-      ]
-    }).flat(),
-  )
+/** 30 resident–attending pairs, differences ±2 cm: the server's error term becomes local. */
+async function storeLocalPairs(teamId: string) {
+  await storeThirtyPairs(teamId, { codePrefix: 'SM-8', firstDayAgo: 2 })
   invalidateObserverTerm()
 }
 
@@ -66,7 +56,7 @@ describe('POST /api/exams with the band the examiner reviewed', () => {
   it('when the server’s error term changed after the review, keeps both bands: the saved one and the one reviewed', async () => {
     const { team, resident } = await ward()
     const reviewed = reviewedWithDefaults()
-    await storeThirtyPairs(team.id)
+    await storeLocalPairs(team.id)
 
     const exam = await recordExam(app, resident.auth, { teamId: team.id, reviewed })
 
@@ -125,7 +115,7 @@ describe('POST /api/sync/push with the band the examiner reviewed', () => {
   it('stores the reviewed band of a new exam when it differs, and a retry of the same change is a duplicate', async () => {
     const { team, resident } = await ward()
     const reviewed = reviewedWithDefaults()
-    await storeThirtyPairs(team.id)
+    await storeLocalPairs(team.id)
     const change = { exam: makeExamInput({ teamId: team.id, reviewed }), baseVersion: null }
 
     const first = await push(app, resident.auth, [change])
@@ -141,7 +131,7 @@ describe('a saved estimate', () => {
   it('never changes when the error term changes afterwards', async () => {
     const { team, resident } = await ward()
     const exam = await recordExam(app, resident.auth, { teamId: team.id })
-    await storeThirtyPairs(team.id)
+    await storeLocalPairs(team.id)
 
     const read = await readExam(resident.auth, exam.id)
     const listed = await request(app).get('/api/exams').set('Authorization', resident.auth)
